@@ -1,0 +1,26 @@
+import type { Sequelize } from 'sequelize';
+import type { Transporter } from 'nodemailer';
+import type { Config } from './config';
+import type { Logger } from './logger';
+import type { Models } from './models';
+import type { OutboxWorker } from './services/outbox';
+import type { SequelizeSessionStore } from './auth/sessionStore';
+import type { FakeSmtp } from './mail/fakeSmtp';
+import type { LoginThrottle } from './auth/throttle';
+
+/** Everything a request handler or service may need, built once at start. */
+export interface AppContext {
+  config: Config;
+  logger: Logger;
+  sequelize: Sequelize;
+  models: Models;
+  transport: Transporter;
+  outbox: OutboxWorker;
+  sessionStore: SequelizeSessionStore;
+  throttle: LoginThrottle;
+  /** Present outside production: the local SMTP fake that captures mail. */
+  fakeSmtp?: FakeSmtp;
+  /** Hooks later features add (workers, pools) that must stop with the app. */
+  onClose: Array<() => Promise<void> | void>;
+  close(): Promise<void>;
+}

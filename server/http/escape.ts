@@ -1,0 +1,12 @@
+const MAP: Record<string, string> = {
+  '&': '&amp;',
+  '<': '&lt;',
+  '>': '&gt;',
+  '"': '&quot;',
+  "'": '&#39;',
+};
+
+/** Escapes text for an HTML text node or a quoted attribute. */
+export function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => MAP[c]);
+}

@@ -1,0 +1,11 @@
+import type { QueryInterface } from 'sequelize';
+import * as m0001 from './0001-accounts';
+
+export interface Migration {
+  name: string;
+  up: (params: { context: QueryInterface }) => Promise<void>;
+  down: (params: { context: QueryInterface }) => Promise<void>;
+}
+
+/** Every migration in order. A new one is a new file here, appended; never edit one that shipped. */
+export const migrations: Migration[] = [{ name: '0001-accounts', ...m0001 }];

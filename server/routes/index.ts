@@ -1,0 +1,18 @@
+import type { Router } from 'express';
+import type { AppContext } from '../context';
+import { mount } from '../http/access';
+import { healthRoutes } from './health';
+import { authRoutes } from './auth';
+import { adminRoutes } from './admin';
+import { devMailRoutes } from './devMail';
+
+/** Paths (below /api) that change nothing and so need no CSRF token. */
+export const CSRF_EXEMPT = ['/adapters/check'];
+
+/** Mounts every resource's router under /api. */
+export function apiRoutes(ctx: AppContext, api: Router) {
+  mount(api, '/', healthRoutes(ctx));
+  mount(api, '/auth', authRoutes(ctx));
+  mount(api, '/admin', adminRoutes(ctx));
+  mount(api, '/dev', devMailRoutes(ctx));
+}

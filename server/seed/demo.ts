@@ -1,0 +1,15 @@
+import type { AppContext } from '../context';
+import { seedAccounts } from './accounts';
+
+export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
+
+/**
+ * Seeds an invented community on a fresh database. Each kind of document adds its own
+ * step to `DEMO_STEPS`; they run in order with the accounts made first.
+ */
+export const DEMO_STEPS: Array<(ctx: AppContext, users: DemoUsers) => Promise<void>> = [];
+
+export async function seedDemo(ctx: AppContext) {
+  const users = await seedAccounts(ctx);
+  for (const step of DEMO_STEPS) await step(ctx, users);
+}

@@ -1,0 +1,136 @@
+import crypto from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import type { Transporter } from 'nodemailer';
+import { OutboxMessage } from '../models';
+import type { MailContent } from '../mail/templates';
+import type { Logger } from '../logger';
+
+export interface OutgoingMail extends MailContent {
+  to: string;
+  kind?: string;
+  headers?: Record<string, string>;
+}
+
+/**
+ * Queues an e-mail in the outbox table. Pass the transaction of the change that causes
+ * it, so the message exists exactly when the change does.
+ */
+export async function enqueueMail(
+  mail: OutgoingMail,
+  opts: { transaction?: Transaction; domain?: string } = {},
+): Promise<OutboxMessage> {
+  const messageId = `<${crypto.randomUUID()}@${opts.domain ?? 'loomwright.test'}>`;
+  return OutboxMessage.create(
+    {
+      messageId,
+      toAddress: mail.to,
+      subject: mail.subject,
+      textBody: mail.text,
+      htmlBody: mail.html,
+      headers: mail.headers ?? null,
+      kind: mail.kind ?? 'general',
+      nextAttemptAt: new Date(),
+      lastError: null,
+      sentAt: null,
+    },
+    { transaction: opts.transaction },
+  );
+}
+
+export interface OutboxWorkerOptions {
+  transport: Transporter;
+  from: string;
+  logger: Logger;
+  pollMs: number;
+  maxAttempts: number;
+  baseBackoffMs: number;
+}
+
+/**
+ * Delivers queued mail with retries and exponential backoff. A message that still
+ * fails after `maxAttempts` is marked failed and logged; nothing is deleted.
+ */
+export class OutboxWorker {
+  private timer?: NodeJS.Timeout;
+  private running: Promise<number> | null = null;
+  private stopped = false;
+
+  constructor(private readonly opts: OutboxWorkerOptions) {}
+
+  async start() {
+    // A message left "sending" by a crash was not confirmed; send it again.
+    await OutboxMessage.update({ status: 'queued' }, { where: { status: 'sending' } });
+    this.stopped = false;
+    this.schedule();
+  }
+
+  private schedule() {
+    if (this.stopped) return;
+    this.timer = setTimeout(() => {
+      void this.flush().finally(() => this.schedule());
+    }, this.opts.pollMs);
+    this.timer.unref();
+  }
+
+  /** Sends every message that is due now; resolves with how many were sent. */
+  flush(): Promise<number> {
+    if (!this.running) {
+      this.running = this.deliverDue().finally(() => {
+        this.running = null;
+      });
+    }
+    return this.running;
+  }
+
+  private async deliverDue(): Promise<number> {
+    let sent = 0;
+    for (;;) {
+      const due = await OutboxMessage.findAll({
+        where: { status: 'queued', nextAttemptAt: { [Op.lte]: new Date() } },
+        order: [['id', 'ASC']],
+        limit: 20,
+      });
+      if (!due.length) return sent;
+      for (const msg of due) {
+        if (this.stopped) return sent;
+        const [claimed] = await OutboxMessage.update(
+          { status: 'sending' },
+          { where: { id: msg.id, status: 'queued' } },
+        );
+        if (!claimed) continue;
+        try {
+          await this.opts.transport.sendMail({
+            from: this.opts.from,
+            to: msg.toAddress,
+            subject: msg.subject,
+            text: msg.textBody,
+            html: msg.htmlBody ?? undefined,
+            messageId: msg.messageId,
+            headers: msg.headers ?? undefined,
+          });
+          await msg.update({ status: 'sent', sentAt: new Date(), attempts: msg.attempts + 1, lastError: null });
+          sent++;
+        } catch (err) {
+          const attempts = msg.attempts + 1;
+          const failed = attempts >= this.opts.maxAttempts;
+          const delay = this.opts.baseBackoffMs * 2 ** (attempts - 1);
+          await msg.update({
+            status: failed ? 'failed' : 'queued',
+            attempts,
+            lastError: String((err as Error).message ?? err).slice(0, 1000),
+            nextAttemptAt: new Date(Date.now() + delay),
+          });
+          const log = { messageId: msg.messageId, to: msg.toAddress, attempts, err: (err as Error).message };
+          if (failed) this.opts.logger.error(log, 'e-mail delivery failed for good');
+          else this.opts.logger.warn(log, 'e-mail delivery failed; will retry');
+        }
+      }
+    }
+  }
+
+  async stop() {
+    this.stopped = true;
+    if (this.timer) clearTimeout(this.timer);
+    if (this.running) await this.running.catch(() => undefined);
+  }
+}
