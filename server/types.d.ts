@@ -2,7 +2,6 @@ import 'express-session';
 import type { PublicUser } from '../shared/schemas/auth';
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     // eslint-disable-next-line @typescript-eslint/no-empty-object-type
     interface User extends PublicUser {}
