@@ -1,0 +1,184 @@
+/** Documents (connector sheets, adapter sheets, write-ups) and their revisions. */
+import { api, type RequestOptions } from './client';
+import type { EntityId } from './types';
+import type { DocumentKind, RevisionStatus } from '@shared/schemas/document';
+
+export type { DocumentKind, RevisionStatus };
+
+export interface PersonRef {
+  id: EntityId;
+  displayName: string;
+}
+
+/** A finding of the automatic checks (shape shared by every kind). */
+export interface Finding {
+  severity?: 'error' | 'warning' | 'info' | string;
+  code?: string;
+  message: string;
+  path?: string | (string | number)[];
+  [key: string]: unknown;
+}
+
+export interface RevisionRef {
+  id: EntityId;
+  number: number;
+  status: RevisionStatus;
+  version: number;
+}
+
+/** A revision as the editor holds it. */
+export interface EditorRevision extends RevisionRef {
+  title: string;
+  content: unknown;
+  note?: string | null;
+  updatedAt?: string;
+  submittedAt?: string | null;
+  decidedAt?: string | null;
+  reviewer?: PersonRef | null;
+}
+
+/** `GET /api/documents/:idOrSlug`: what a reader sees. */
+export interface DocumentView {
+  id: EntityId;
+  slug: string;
+  kind: DocumentKind;
+  title: string;
+  content: unknown;
+  summary?: string | null;
+  owner: PersonRef;
+  revision: RevisionRef & {
+    publishedAt: string | null;
+    reviewer: PersonRef | null;
+  };
+  findings?: Finding[];
+}
+
+export interface EditorDocument {
+  id: EntityId;
+  slug: string;
+  kind: DocumentKind;
+  title?: string;
+  owner?: PersonRef;
+  /** The published revision number, when one is published. */
+  published?: boolean | null;
+  publishedRevision?: RevisionRef | null;
+}
+
+export interface EditorState {
+  document: EditorDocument;
+  revision: EditorRevision;
+}
+
+export interface CreatedDocument {
+  id: EntityId;
+  slug: string;
+  revision: RevisionRef;
+}
+
+export interface RevisionSummary extends RevisionRef {
+  title: string;
+  note: string | null;
+  reviewer: PersonRef | null;
+  submittedAt: string | null;
+  decidedAt: string | null;
+}
+
+export interface MyDocument {
+  id: EntityId;
+  slug: string;
+  kind: DocumentKind;
+  title: string;
+  published: boolean;
+  latest: {
+    id: EntityId;
+    number: number;
+    status: RevisionStatus;
+    note: string | null;
+    updatedAt: string;
+  };
+}
+
+const enc = (id: EntityId) => encodeURIComponent(String(id));
+
+export function createDocument(
+  input: { kind: DocumentKind; title: string; content: unknown },
+  options?: RequestOptions,
+): Promise<CreatedDocument> {
+  return api.post<CreatedDocument>('/api/documents', input, options);
+}
+
+export function getDocument(
+  idOrSlug: EntityId,
+  revision?: number,
+  options: RequestOptions = {},
+): Promise<DocumentView> {
+  return api.get<DocumentView>(`/api/documents/${enc(idOrSlug)}`, {
+    ...options,
+    query: { ...options.query, revision },
+  });
+}
+
+export function getEditor(id: EntityId, options?: RequestOptions): Promise<EditorState> {
+  return api.get<EditorState>(`/api/documents/${enc(id)}/editor`, options);
+}
+
+export async function saveDraft(
+  id: EntityId,
+  input: { title: string; content: unknown; version: number },
+  options?: RequestOptions,
+): Promise<EditorRevision> {
+  const body = await api.put<{ revision: EditorRevision }>(
+    `/api/documents/${enc(id)}/draft`,
+    input,
+    options,
+  );
+  return body.revision;
+}
+
+export async function submitDocument(
+  id: EntityId,
+  options?: RequestOptions,
+): Promise<EditorRevision> {
+  const body = await api.post<{ revision: EditorRevision }>(
+    `/api/documents/${enc(id)}/submit`,
+    {},
+    options,
+  );
+  return body.revision;
+}
+
+export async function withdrawDocument(
+  id: EntityId,
+  options?: RequestOptions,
+): Promise<EditorRevision> {
+  const body = await api.post<{ revision: EditorRevision }>(
+    `/api/documents/${enc(id)}/withdraw`,
+    {},
+    options,
+  );
+  return body.revision;
+}
+
+export function listRevisions(id: EntityId, options?: RequestOptions): Promise<RevisionSummary[]> {
+  return api.get<RevisionSummary[]>(`/api/documents/${enc(id)}/revisions`, options);
+}
+
+export function listMyDocuments(options?: RequestOptions): Promise<MyDocument[]> {
+  return api.get<MyDocument[]>('/api/me/documents', options);
+}
+
+/** Words for statuses, the same everywhere (PRODUCT.md's names). */
+export const STATUS_LABELS: Record<RevisionStatus, string> = {
+  draft: 'draft',
+  submitted: 'submitted',
+  returned: 'returned',
+  published: 'published',
+  declined: 'declined',
+  superseded: 'superseded',
+};
+
+export const KIND_LABELS: Record<DocumentKind, string> = {
+  connector: 'Connector sheet',
+  adapter: 'Adapter sheet',
+  writeup: 'Write-up',
+};
