@@ -1,0 +1,151 @@
+import type { RouteLocationNormalized, RouteRecordRaw } from 'vue-router';
+
+const MainLayout = () => import('@/layouts/MainLayout.vue');
+const AuthLayout = () => import('@/layouts/AuthLayout.vue');
+
+/** Passes one query value as a string prop (the first one if repeated). */
+function queryProp(name: string) {
+  return (route: RouteLocationNormalized) => {
+    const raw = route.query[name];
+    const value = Array.isArray(raw) ? raw[0] : raw;
+    return { [name]: typeof value === 'string' ? value : '' };
+  };
+}
+
+/**
+ * Every route of the client. Add new pages as children of a layout, in their group;
+ * the nav in MainLayout shows an entry once a route with its name exists
+ * (`connectors`, `adapters`, `writeups`, `review-queue`).
+ */
+export const routes: RouteRecordRaw[] = [
+  {
+    path: '/',
+    component: MainLayout,
+    children: [
+      // ── Look up ──────────────────────────────────────────────
+      {
+        path: '',
+        name: 'home',
+        component: () => import('@/pages/HomePage.vue'),
+        meta: { title: 'Look up a connector' },
+      },
+      {
+        path: 'search',
+        name: 'search',
+        component: () => import('@/pages/SearchPage.vue'),
+        props: queryProp('q'),
+        meta: { title: 'Search' },
+      },
+
+      // ── Documents: connector sheets, adapter sheets, write-ups ─
+      // (added by their own issues: /connectors/..., /adapters/..., /write-ups/...)
+
+      // ── Review (moderator+) ──────────────────────────────────
+      // (added by the review-queue issue, meta: { role: 'moderator' })
+
+      // ── Account ──────────────────────────────────────────────
+      {
+        path: 'account',
+        name: 'account',
+        component: () => import('@/pages/AccountPage.vue'),
+        meta: { requiresAuth: true, title: 'Your account' },
+      },
+      {
+        path: 'verify-email',
+        name: 'verify-email',
+        component: () => import('@/pages/VerifyEmailPage.vue'),
+        props: queryProp('token'),
+        meta: { title: 'Verify your e-mail' },
+      },
+
+      // ── Admin ────────────────────────────────────────────────
+      {
+        path: 'admin',
+        meta: { requiresAuth: true, role: 'admin' },
+        children: [
+          { path: '', name: 'admin', redirect: { name: 'admin-members' } },
+          {
+            path: 'members',
+            name: 'admin-members',
+            component: () => import('@/pages/admin/AdminMembersPage.vue'),
+            meta: { title: 'Members and roles' },
+          },
+          {
+            path: 'audit',
+            name: 'admin-audit',
+            component: () => import('@/pages/admin/AdminAuditPage.vue'),
+            meta: { title: 'Audit log' },
+          },
+        ],
+      },
+
+      // ── Development only (the page checks /api/meta) ─────────
+      {
+        path: 'dev/mail',
+        name: 'dev-mailbox',
+        component: () => import('@/pages/dev/MailboxPage.vue'),
+        meta: { title: 'Development mailbox' },
+      },
+
+      // ── Notices ──────────────────────────────────────────────
+      {
+        path: 'not-allowed',
+        name: 'not-allowed',
+        component: () => import('@/pages/NotAllowedPage.vue'),
+        props: (route) => ({
+          need: typeof route.query.need === 'string' ? route.query.need : '',
+          from: typeof route.query.from === 'string' ? route.query.from : '',
+        }),
+        meta: { title: 'Not allowed' },
+      },
+    ],
+  },
+
+  // ── Signing in and out (a plain layout) ──────────────────────
+  {
+    path: '/',
+    component: AuthLayout,
+    children: [
+      {
+        path: 'sign-in',
+        name: 'sign-in',
+        component: () => import('@/pages/SignInPage.vue'),
+        props: queryProp('redirect'),
+        meta: { title: 'Sign in' },
+      },
+      {
+        path: 'register',
+        name: 'register',
+        component: () => import('@/pages/RegisterPage.vue'),
+        meta: { title: 'Create an account' },
+      },
+      {
+        path: 'forgot-password',
+        name: 'forgot-password',
+        component: () => import('@/pages/ForgotPasswordPage.vue'),
+        meta: { title: 'Forgotten password' },
+      },
+      {
+        path: 'reset-password',
+        name: 'reset-password',
+        component: () => import('@/pages/ResetPasswordPage.vue'),
+        props: queryProp('token'),
+        meta: { title: 'Choose a new password' },
+      },
+    ],
+  },
+
+  // ── Keep last: anything unknown ──────────────────────────────
+  {
+    path: '/:pathMatch(.*)*',
+    component: MainLayout,
+    children: [
+      {
+        path: '',
+        name: 'not-found',
+        component: () => import('@/pages/NotFoundPage.vue'),
+        meta: { title: 'Page not found' },
+      },
+    ],
+  },
+];
