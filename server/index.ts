@@ -1,3 +1,4 @@
+import './threadpool';
 import http from 'node:http';
 import { ConfigError, loadConfig } from './config';
 import { createContext } from './bootstrap';

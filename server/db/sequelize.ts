@@ -69,7 +69,57 @@ export function createSequelize({ file, url, logger }: DatabaseOptions): Sequeli
     }
     return conn;
   };
+  serializeTransactions(sequelize);
   return sequelize;
+}
+
+/**
+ * Lets one transaction at a time into SQLite from this process. SQLite has one writer
+ * anyway; without this, transactions waiting for the lock sleep inside sqlite3 on
+ * libuv's few pool threads, the one holding the lock cannot run its next statement,
+ * and all of them time out with SQLITE_BUSY.
+ */
+function serializeTransactions(sequelize: Sequelize) {
+  let tail: Promise<void> = Promise.resolve();
+  const acquire = () => {
+    let release!: () => void;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    const ready = tail;
+    tail = tail.then(() => held);
+    return ready.then(() => release);
+  };
+  const original = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
+  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction = async (
+    ...args: unknown[]
+  ) => {
+    const release = await acquire();
+    const managed = typeof args[args.length - 1] === 'function';
+    if (managed) {
+      try {
+        return await original(...args);
+      } finally {
+        release();
+      }
+    }
+    try {
+      const t = (await original(...args)) as Transaction;
+      let released = false;
+      const once = () => {
+        if (!released) {
+          released = true;
+          release();
+        }
+      };
+      const commit = t.commit.bind(t);
+      const rollback = t.rollback.bind(t);
+      t.commit = () => commit().finally(once);
+      t.rollback = () => rollback().finally(once);
+      return t;
+    } catch (err) {
+      release();
+      throw err;
+    }
+  };
 }
 
 /** True for the errors SQLite gives when another connection holds the write lock. */
