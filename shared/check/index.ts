@@ -1,0 +1,26 @@
+export {
+  checkAdapter,
+  checkParsedAdapter,
+  normalizeRole,
+  reverseEnds,
+  severityOf,
+  type Side,
+} from './pinCheck';
+export {
+  adapterCheckInputSchema,
+  adapterEndSchema,
+  checkReportSchema,
+  circuitInputSchema,
+  findingCodes,
+  findingSchema,
+  parseAdapterCheckInput,
+  type AdapterEnd,
+  type AdapterInput,
+  type CheckReport,
+  type CircuitInput,
+  type EndSummary,
+  type Finding,
+  type FindingCode,
+  type InputIssue,
+  type ParsedAdapterCheckInput,
+} from '../schemas/adapter';
