@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { connectorContentSchema } from './connector';
 import { writeupContentSchema } from './writeup';
+import { adapterCheckInputSchema } from './adapter';
 
 export const DOCUMENT_KINDS = ['connector', 'adapter', 'writeup'] as const;
 export const REVISION_STATUSES = [
@@ -30,8 +31,8 @@ export const OPEN_STATUSES: readonly RevisionStatus[] = ['draft', 'submitted', '
 export const MAX_TITLE = 160;
 export const MAX_NOTE = 4000;
 
-// Placeholder until the adapter content schema is in: any object.
-const adapterContentSchema = z.looseObject({});
+// The pin-to-pin check's input is an adapter sheet's content (API.md).
+const adapterContentSchema = adapterCheckInputSchema;
 
 const CONTENT_SCHEMAS = {
   connector: connectorContentSchema,
@@ -100,9 +101,22 @@ export const noteRequiredDecisionSchema = z.strictObject({
 export const returnDecisionSchema = noteRequiredDecisionSchema;
 export const declineDecisionSchema = noteRequiredDecisionSchema;
 
-export const reviewQueueQuerySchema = z.strictObject({ kind: documentKindSchema.optional() });
-export const revisionQuerySchema = z.strictObject({
-  revision: z.coerce.number({ error: 'must be a revision number' }).int().positive().optional(),
+const blankToUndefined = (v: unknown) => (v === '' ? undefined : v);
+
+/** `GET /api/review/queue?kind=`: an empty kind means every kind. */
+export const reviewQueueQuerySchema = z.object({
+  kind: z.preprocess(blankToUndefined, documentKindSchema.optional()),
+});
+/** `GET /api/documents/:idOrSlug?revision=N`. */
+export const revisionQuerySchema = z.object({
+  revision: z.preprocess(
+    blankToUndefined,
+    z.coerce
+      .number({ error: 'must be a revision number' })
+      .int({ error: 'must be a whole number' })
+      .positive({ error: 'must be 1 or more' })
+      .optional(),
+  ),
 });
 
 export type CreateDocumentInput = z.infer<typeof createDocumentSchema>;
