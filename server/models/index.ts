@@ -4,6 +4,8 @@ import { Session } from './Session';
 import { AuthToken } from './AuthToken';
 import { AuditEntry } from './AuditEntry';
 import { OutboxMessage } from './OutboxMessage';
+import { Document } from './Document';
+import { Revision } from './Revision';
 
 /** Initialises every model on one connection and wires their associations. */
 export function initModels(sequelize: Sequelize) {
@@ -12,12 +14,25 @@ export function initModels(sequelize: Sequelize) {
   AuthToken.initModel(sequelize);
   AuditEntry.initModel(sequelize);
   OutboxMessage.initModel(sequelize);
+  Document.initModel(sequelize);
+  Revision.initModel(sequelize);
 
   AuthToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  Document.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+  Document.hasMany(Revision, { foreignKey: 'documentId', as: 'revisions' });
+  Document.belongsTo(Revision, {
+    foreignKey: 'publishedRevisionId',
+    as: 'publishedRevision',
+    constraints: false,
+  });
+  Revision.belongsTo(Document, { foreignKey: 'documentId', as: 'document' });
+  Revision.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Revision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
+  Revision.belongsTo(User, { foreignKey: 'claimedById', as: 'claimedBy' });
 
-  return { User, Session, AuthToken, AuditEntry, OutboxMessage };
+  return { User, Session, AuthToken, AuditEntry, OutboxMessage, Document, Revision };
 }
 
 export type Models = ReturnType<typeof initModels>;
-export { User, Session, AuthToken, AuditEntry, OutboxMessage };
+export { User, Session, AuthToken, AuditEntry, OutboxMessage, Document, Revision };

@@ -5,6 +5,9 @@ import { healthRoutes } from './health';
 import { authRoutes } from './auth';
 import { adminRoutes } from './admin';
 import { devMailRoutes } from './devMail';
+import { documentRoutes } from './documents';
+import { reviewRoutes } from './review';
+import { meRoutes } from './me';
 
 /** Paths (below /api) that change nothing and so need no CSRF token. */
 export const CSRF_EXEMPT = ['/adapters/check'];
@@ -15,4 +18,7 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/auth', authRoutes(ctx));
   mount(api, '/admin', adminRoutes(ctx));
   mount(api, '/dev', devMailRoutes(ctx));
+  mount(api, '/documents', documentRoutes(ctx));
+  mount(api, '/review', reviewRoutes(ctx));
+  mount(api, '/me', meRoutes());
 }

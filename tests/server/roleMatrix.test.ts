@@ -25,6 +25,21 @@ const MATRIX: Record<string, Access> = {
   'GET /api/admin/audit': 'admin',
   'GET /api/dev/mail': 'dev',
   'DELETE /api/dev/mail': 'dev',
+  'POST /api/documents/': 'verified',
+  'GET /api/documents/:idOrSlug': 'anyone',
+  'GET /api/documents/:id/editor': 'verified',
+  'PUT /api/documents/:id/draft': 'verified',
+  'POST /api/documents/:id/submit': 'verified',
+  'POST /api/documents/:id/withdraw': 'verified',
+  'GET /api/documents/:id/revisions': 'signedIn',
+  'GET /api/me/documents': 'signedIn',
+  'GET /api/review/queue': 'moderator',
+  'GET /api/review/:revisionId': 'moderator',
+  'POST /api/review/:revisionId/claim': 'moderator',
+  'POST /api/review/:revisionId/release': 'moderator',
+  'POST /api/review/:revisionId/publish': 'moderator',
+  'POST /api/review/:revisionId/return': 'moderator',
+  'POST /api/review/:revisionId/decline': 'moderator',
 };
 
 type Who = 'anonymous' | 'unverified' | 'member' | 'moderator' | 'admin';
