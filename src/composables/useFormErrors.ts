@@ -18,6 +18,12 @@ export function useFormErrors<F extends string>(fields: readonly F[]) {
     formError.value = null;
   }
 
+  /** Beside a labelled field, 'The field "email": must be…' reads better as 'Must be…'. */
+  function besideField(message: string): string {
+    const bare = message.replace(/^The field "[^"]*":\s*/, '');
+    return bare.charAt(0).toUpperCase() + bare.slice(1);
+  }
+
   function fieldFor(path: string): F | undefined {
     const head = path.split('.')[0];
     return fields.find((field) => field === head);
@@ -33,9 +39,8 @@ export function useFormErrors<F extends string>(fields: readonly F[]) {
     for (const issue of error.details ?? []) {
       const field = fieldFor(issue.path);
       if (field) {
-        fieldErrors[field] = fieldErrors[field]
-          ? `${fieldErrors[field]} ${issue.message}`
-          : issue.message;
+        const text = besideField(issue.message);
+        fieldErrors[field] = fieldErrors[field] ? `${fieldErrors[field]} ${text}` : text;
         placed = true;
       }
     }
@@ -45,7 +50,7 @@ export function useFormErrors<F extends string>(fields: readonly F[]) {
         new RegExp(`\\b${field.replace(/([A-Z])/g, ' ?$1')}\\b`, 'i').test(error.message),
       );
       if (named) {
-        fieldErrors[named] = error.message;
+        fieldErrors[named] = besideField(error.message);
         placed = true;
       }
     }

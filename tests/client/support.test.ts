@@ -43,6 +43,21 @@ describe('useFormErrors', () => {
     expect(form.fieldErrors.password).toBeUndefined();
     expect(form.fieldErrors.displayName).toBe('The display name is too short.');
 
+    form.apply(
+      new ApiError({
+        status: 400,
+        code: 'VALIDATION',
+        message: 'The field "email": must be a valid e-mail address, like name@example.test.',
+        details: [
+          {
+            path: 'email',
+            message: 'The field "email": must be a valid e-mail address, like name@example.test.',
+          },
+        ],
+      }),
+    );
+    expect(form.fieldErrors.email).toBe('Must be a valid e-mail address, like name@example.test.');
+
     form.apply(new ApiError({ status: 429, code: 'THROTTLED', message: 'Wait a minute.' }));
     expect(form.formError.value).toBe('Wait a minute.');
   });
