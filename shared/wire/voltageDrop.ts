@@ -1,7 +1,7 @@
 /**
  * Voltage drop along a copper circuit, out and back.
  */
-import { AWG_MIN_GAUGE, smallestAwgAtLeast } from './awg';
+import { smallestAwgAtLeast } from './awg';
 import { COPPER_REFERENCE_TEMP_C, copperResistivity } from './copper';
 
 /** ABYC E-11: largest drop for critical circuits (feeders, electronics, navigation lights), %. */
@@ -98,6 +98,5 @@ export function smallestAwgForDrop(
   systemVoltage: number = DEFAULT_SYSTEM_VOLTAGE,
   limitPercent: number = ABYC_E11_CRITICAL_DROP_PERCENT,
 ): number | undefined {
-  const g = smallestAwgAtLeast(minimumAreaForDrop(currentA, lengthMm, systemVoltage, limitPercent));
-  return g === undefined || g < AWG_MIN_GAUGE ? undefined : g;
+  return smallestAwgAtLeast(minimumAreaForDrop(currentA, lengthMm, systemVoltage, limitPercent));
 }
