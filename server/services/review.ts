@@ -266,6 +266,20 @@ export async function decide(
     const now = new Date();
     const cleanNote = note?.trim() ? note.trim() : null;
 
+    // At most one revision per document is published (a unique index): the old one
+    // steps down first; if the decision below is refused, the transaction undoes it.
+    let superseded: number | null = null;
+    if (decision === 'publish') {
+      const [n] = await Revision.update(
+        { status: 'superseded' },
+        {
+          where: { documentId: doc.id, status: 'published', id: { [Op.ne]: rev.id } },
+          transaction,
+        },
+      );
+      if (n) superseded = doc.publishedRevisionId;
+    }
+
     const [changed] = await Revision.update(
       {
         status: STATUS_OF[decision],
@@ -291,25 +305,7 @@ export async function decide(
       throw claimedByOther(current);
     }
 
-    let superseded: number | null = null;
-    if (decision === 'publish') {
-      if (doc.publishedRevisionId && doc.publishedRevisionId !== rev.id) {
-        await Revision.update(
-          { status: 'superseded' },
-          { where: { id: doc.publishedRevisionId, status: 'published' }, transaction },
-        );
-        superseded = doc.publishedRevisionId;
-      }
-      // Anything else still marked published (there should be nothing) is superseded too.
-      await Revision.update(
-        { status: 'superseded' },
-        {
-          where: { documentId: doc.id, status: 'published', id: { [Op.ne]: rev.id } },
-          transaction,
-        },
-      );
-      await doc.update({ publishedRevisionId: rev.id }, { transaction });
-    }
+    if (decision === 'publish') await doc.update({ publishedRevisionId: rev.id }, { transaction });
 
     await audit(
       {
