@@ -23,11 +23,16 @@ async function main() {
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
+  // With PORT=0 the port is known only now; e-mail links must carry it.
+  if (!process.env.PUBLIC_URL) {
+    const host = ['0.0.0.0', '::'].includes(config.host) ? 'localhost' : config.host;
+    ctx.config.publicUrl = `http://${host}:${port}`;
+  }
   ctx.logger.info({ port, dataDir: config.dataDir }, `Loomwright is listening on http://localhost:${port}`);
   if (ctx.fakeSmtp)
     ctx.logger.info(
       { smtp: ctx.fakeSmtp.url },
-      `The local mail fake catches every e-mail: open http://localhost:${port}/dev/mailbox`,
+      `The local mail fake catches every e-mail: open http://localhost:${port}/dev/mail`,
     );
   if (process.send) process.send({ ready: true, port });
 

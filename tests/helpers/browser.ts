@@ -1,5 +1,4 @@
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 
@@ -15,13 +14,9 @@ export const CHROMIUM_ARGS = [
   '--disable-sync',
 ];
 
-/** Debian's Chromium, headless, with a fresh profile. */
+/** Debian's Chromium, headless; playwright gives each launch a fresh, empty profile. */
 export async function launchBrowser(): Promise<Browser> {
-  const profile = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-chrome-'));
-  return chromium.launch({
-    executablePath: CHROMIUM,
-    args: [...CHROMIUM_ARGS, `--user-data-dir=${profile}`],
-  });
+  return chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS });
 }
 
 export const SCREENSHOT_DIR = path.resolve(import.meta.dirname, '..', '..', 'test-results', 'screens');

@@ -34,7 +34,7 @@ export async function startServer(
       DEV_SMTP_PORT: '0',
       DEMO_PASSWORD: TEST_PASSWORD,
       SEED_DEMO: opts.seedDemo === false ? 'false' : 'true',
-      LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
+      LOG_LEVEL: process.env.LOG_LEVEL ?? 'error',
       PASSWORD_HASH_N: '1024',
       ...opts.env,
     },
