@@ -1,5 +1,6 @@
 import { createApp } from 'vue';
 import { createPinia } from 'pinia';
+import { Notify } from 'quasar';
 
 import '@quasar/extras/roboto-font/roboto-font.css';
 import '@quasar/extras/material-icons/material-icons.css';
@@ -28,6 +29,12 @@ configureApiClient({
     useAuthStore(pinia).forget();
     const current = router.currentRoute.value;
     if (current.name === 'sign-in') return;
+    Notify.create({
+      type: 'info',
+      icon: 'login',
+      message: 'Your session has ended. Sign in again to carry on where you were.',
+      group: 'session-ended',
+    });
     void router.push({ name: 'sign-in', query: { redirect: current.fullPath } });
   },
 });

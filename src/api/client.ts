@@ -262,7 +262,12 @@ export async function apiRequest<T = unknown>(
         ? error
         : new ApiError({ status: 0, code: 'CLIENT', message: String(error) });
     if (apiError.status === 401 && redirectsOn401(method, path, apiError, options)) {
-      hooks.onUnauthenticated?.(apiError);
+      // The hook moves the reader to sign-in and says why, even for quiet calls:
+      // a page that vanishes without a word is worse than one notice.
+      if (hooks.onUnauthenticated) {
+        hooks.onUnauthenticated(apiError);
+        throw apiError;
+      }
     }
     if (!options.quiet) (hooks.notify ?? defaultNotify)(apiError);
     throw apiError;

@@ -211,6 +211,19 @@ describe('401', () => {
     );
     await expect(api.get('/api/admin/users')).rejects.toMatchObject({ status: 401 });
     expect(onUnauthenticated).toHaveBeenCalledTimes(1);
+    expect(notify).not.toHaveBeenCalled(); // the sign-in redirect says why, once
+  });
+
+  it('does so for quiet calls too', async () => {
+    installFetch((url) =>
+      url === '/api/auth/csrf'
+        ? json(200, { token: 't' })
+        : json(401, { error: { code: 'UNAUTHENTICATED', message: 'Please sign in first.' } }),
+    );
+    await expect(api.patch('/api/auth/me', {}, { quiet: true })).rejects.toMatchObject({
+      status: 401,
+    });
+    expect(onUnauthenticated).toHaveBeenCalledTimes(1);
   });
 
   it('does not for /api/auth/me, which answers 401 when nobody is signed in', async () => {
