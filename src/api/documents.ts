@@ -10,13 +10,14 @@ export interface PersonRef {
   displayName: string;
 }
 
-/** A finding of the automatic checks (shape shared by every kind). */
-export interface Finding {
-  severity?: 'error' | 'warning' | 'info' | string;
-  code?: string;
-  message: string;
-  path?: string | (string | number)[];
-  [key: string]: unknown;
+/** The automatic findings of a revision: errors, warnings and the cautions its page shows. */
+export interface DocumentFindings {
+  ok: boolean;
+  errors: Array<{ code: string; message: string; [key: string]: unknown }>;
+  warnings: Array<{ code: string; message: string; [key: string]: unknown }>;
+  cautions: string[];
+  summary?: unknown;
+  report?: unknown;
 }
 
 export interface RevisionRef {
@@ -34,7 +35,11 @@ export interface EditorRevision extends RevisionRef {
   updatedAt?: string;
   submittedAt?: string | null;
   decidedAt?: string | null;
+  publishedAt?: string | null;
+  authorId?: EntityId;
+  author?: PersonRef | null;
   reviewer?: PersonRef | null;
+  claimedBy?: PersonRef | null;
 }
 
 /** `GET /api/documents/:idOrSlug`: what a reader sees. */
@@ -48,30 +53,33 @@ export interface DocumentView {
   owner: PersonRef;
   revision: RevisionRef & {
     publishedAt: string | null;
+    updatedAt?: string;
     reviewer: PersonRef | null;
   };
-  findings?: Finding[];
+  publishedRevisionId?: EntityId | null;
+  findings?: DocumentFindings;
 }
 
 export interface EditorDocument {
   id: EntityId;
   slug: string;
   kind: DocumentKind;
-  title?: string;
-  owner?: PersonRef;
-  /** The published revision number, when one is published. */
-  published?: boolean | null;
-  publishedRevision?: RevisionRef | null;
+  ownerId?: EntityId;
+  publishedRevisionId?: EntityId | null;
+  /** The published revision, when one is published. */
+  published?: { id: EntityId; number: number; version: number; publishedAt: string | null } | null;
 }
 
 export interface EditorState {
   document: EditorDocument;
-  revision: EditorRevision;
+  /** Null only for a document with no revision at all (which the server never makes). */
+  revision: EditorRevision | null;
 }
 
 export interface CreatedDocument {
   id: EntityId;
   slug: string;
+  kind: DocumentKind;
   revision: RevisionRef;
 }
 
@@ -94,6 +102,9 @@ export interface MyDocument {
     number: number;
     status: RevisionStatus;
     note: string | null;
+    version?: number;
+    submittedAt?: string | null;
+    decidedAt?: string | null;
     updatedAt: string;
   };
 }
