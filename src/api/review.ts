@@ -1,48 +1,52 @@
 /** The moderators' review queue and decisions. */
+import type { RevisionDiff } from '@shared/diff/revisions';
 import { api, type RequestOptions } from './client';
 import type { EntityId } from './types';
-import type { DocumentKind, EditorRevision, Finding, PersonRef, RevisionStatus } from './documents';
+import type { DocumentFindings, DocumentKind, EditorRevision, PersonRef } from './documents';
 
 export interface QueueItem {
   revisionId: EntityId;
   documentId: EntityId;
+  slug: string | null;
   kind: DocumentKind;
+  number: number;
   title: string;
-  author: PersonRef | string;
+  author: PersonRef | null;
   submittedAt: string;
   claimedBy: PersonRef | null;
+  /** A published revision exists: this is an update to it. */
+  isUpdate: boolean;
+  /** The signed-in moderator wrote it, so they cannot decide on it. */
+  own: boolean;
 }
 
+/** One line of the checklist; `ok` is null for what only a person can judge. */
 export interface ChecklistItem {
-  id?: string;
-  key?: string;
+  key: string;
   label: string;
-  /** What the automatic checks say, when they can tell. */
-  auto?: boolean | null;
-  [key: string]: unknown;
-}
-
-export interface ReviewRevision extends EditorRevision {
-  author?: PersonRef;
-  claimedBy?: PersonRef | null;
+  auto: boolean;
+  ok: boolean | null;
+  detail?: string;
 }
 
 export interface ReviewDocument {
   id: EntityId;
   slug: string;
   kind: DocumentKind;
-  title?: string;
-  owner: PersonRef;
+  kindLabel?: string;
+  owner: PersonRef | null;
+  publishedRevisionId: EntityId | null;
 }
 
-/** `GET /api/review/:revisionId`. `diff` follows shared/diff/revisions.ts. */
+/** `GET /api/review/:revisionId`. */
 export interface ReviewView {
   document: ReviewDocument;
-  revision: ReviewRevision;
-  previous: (EditorRevision & { status: RevisionStatus }) | null;
-  diff: unknown;
-  findings: Finding[];
-  checklist: ChecklistItem[] | unknown;
+  revision: EditorRevision;
+  previous: EditorRevision | null;
+  diff: RevisionDiff;
+  findings: DocumentFindings;
+  checklist: ChecklistItem[];
+  actions?: { canClaim: boolean; canDecide: boolean; reason: string | null };
 }
 
 export type Decision = 'publish' | 'return' | 'decline';
@@ -59,12 +63,28 @@ export function listQueue(
   });
 }
 
-export function claim(revisionId: EntityId, options?: RequestOptions): Promise<unknown> {
-  return api.post(`/api/review/${enc(revisionId)}/claim`, {}, options);
+export async function claim(
+  revisionId: EntityId,
+  options?: RequestOptions,
+): Promise<EditorRevision> {
+  const body = await api.post<{ revision: EditorRevision }>(
+    `/api/review/${enc(revisionId)}/claim`,
+    {},
+    options,
+  );
+  return body.revision;
 }
 
-export function release(revisionId: EntityId, options?: RequestOptions): Promise<unknown> {
-  return api.post(`/api/review/${enc(revisionId)}/release`, {}, options);
+export async function release(
+  revisionId: EntityId,
+  options?: RequestOptions,
+): Promise<EditorRevision> {
+  const body = await api.post<{ revision: EditorRevision }>(
+    `/api/review/${enc(revisionId)}/release`,
+    {},
+    options,
+  );
+  return body.revision;
 }
 
 export function getReview(revisionId: EntityId, options?: RequestOptions): Promise<ReviewView> {
@@ -79,14 +99,8 @@ export async function decide(
 ): Promise<EditorRevision> {
   const body = await api.post<{ revision: EditorRevision }>(
     `/api/review/${enc(revisionId)}/${decision}`,
-    decision === 'publish' && !note.trim() ? {} : { note },
+    decision === 'publish' && !note.trim() ? {} : { note: note.trim() },
     options,
   );
   return body.revision;
-}
-
-/** The author's name whether the server sends a person or a plain name. */
-export function personName(p: PersonRef | string | null | undefined): string {
-  if (!p) return '—';
-  return typeof p === 'string' ? p : p.displayName;
 }
