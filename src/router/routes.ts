@@ -38,10 +38,50 @@ export const routes: RouteRecordRaw[] = [
       },
 
       // ── Documents: connector sheets, adapter sheets, write-ups ─
-      // (added by their own issues: /connectors/..., /adapters/..., /write-ups/...)
+      // One editor page for every kind (it picks the kind's editor); `/…/new` and
+      // `/documents/:id/edit` share it so the page stays mounted when a new draft is created.
+      {
+        path: 'connectors/new',
+        name: 'connector-new',
+        component: () => import('@/pages/documents/DocumentEditPage.vue'),
+        props: { kind: 'connector' },
+        meta: { verified: true, title: 'New connector sheet' },
+      },
+      {
+        path: 'documents/:id(\\d+)/edit',
+        name: 'document-edit',
+        component: () => import('@/pages/documents/DocumentEditPage.vue'),
+        props: (route) => ({ id: String(route.params.id) }),
+        meta: { verified: true, title: 'Edit document' },
+      },
+      {
+        path: 'documents/:slug',
+        name: 'document',
+        component: () => import('@/pages/documents/DocumentPage.vue'),
+        props: true,
+        meta: { title: 'Document' },
+      },
+      {
+        path: 'me/documents',
+        name: 'my-documents',
+        component: () => import('@/pages/documents/MyDocumentsPage.vue'),
+        meta: { requiresAuth: true, title: 'My documents' },
+      },
 
       // ── Review (moderator+) ──────────────────────────────────
-      // (added by the review-queue issue, meta: { role: 'moderator' })
+      {
+        path: 'review',
+        name: 'review-queue',
+        component: () => import('@/pages/review/ReviewQueuePage.vue'),
+        meta: { role: 'moderator', title: 'Review queue' },
+      },
+      {
+        path: 'review/:revisionId(\\d+)',
+        name: 'review',
+        component: () => import('@/pages/review/ReviewPage.vue'),
+        props: true,
+        meta: { role: 'moderator', title: 'Review' },
+      },
 
       // ── Account ──────────────────────────────────────────────
       {
