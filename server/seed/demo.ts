@@ -1,5 +1,6 @@
 import type { AppContext } from '../context';
 import { seedAccounts } from './accounts';
+import { seedConnectors } from './connectors';
 
 export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
 
@@ -7,7 +8,9 @@ export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
  * Seeds an invented community on a fresh database. Each kind of document adds its own
  * step to `DEMO_STEPS`; they run in order with the accounts made first.
  */
-export const DEMO_STEPS: Array<(ctx: AppContext, users: DemoUsers) => Promise<void>> = [];
+export const DEMO_STEPS: Array<(ctx: AppContext, users: DemoUsers) => Promise<void>> = [
+  seedConnectors,
+];
 
 export async function seedDemo(ctx: AppContext) {
   const users = await seedAccounts(ctx);
