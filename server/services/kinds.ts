@@ -15,7 +15,8 @@ import {
   type CautionKind,
 } from '../../shared/connector/findings';
 import { connectorCavityLabels } from '../../shared/connector/layout';
-import { checkAdapter, type CheckReport } from '../../shared/check';
+import type { CheckReport } from '../../shared/check';
+import { checkAdapterContent, type LinkedSheet } from './adapters';
 
 /** Findings of any kind: errors, warnings and the cautions its page shows. */
 export interface DocumentFindings {
@@ -27,6 +28,8 @@ export interface DocumentFindings {
   summary?: unknown;
   /** An adapter's full pin-to-pin check report. */
   report?: CheckReport;
+  /** An adapter's ends that link a published connector sheet, as the check read them. */
+  linked?: Partial<Record<'A' | 'B', LinkedSheet>>;
 }
 
 /** One line of the moderator's checklist; `ok` is null for what only a person can judge. */
@@ -54,11 +57,23 @@ export interface KindDefinition {
 
 const text = (v: unknown) => (typeof v === 'string' ? v.trim() : '');
 
-function adapterCautions(content: Content): CautionKind[] {
+function adapterCautions(
+  content: Content,
+  linked: Partial<Record<'A' | 'B', LinkedSheet>> = {},
+): CautionKind[] {
   const circuits = Array.isArray(content.circuits) ? (content.circuits as Content[]) : [];
   const ends = (content.ends ?? {}) as Record<string, Content | null>;
   return connectorCautions({
-    component: [ends.A?.label, ends.B?.label].map(text).join('\n'),
+    component: [
+      ends.A?.label,
+      ends.B?.label,
+      linked.A?.component,
+      linked.B?.component,
+      linked.A?.title,
+      linked.B?.title,
+    ]
+      .map(text)
+      .join('\n'),
     pins: circuits.map((c) => ({
       cavity: '',
       role: text(c?.role),
@@ -66,10 +81,6 @@ function adapterCautions(content: Content): CautionKind[] {
       size: typeof c?.size === 'string' ? c.size : '',
     })),
   });
-}
-
-function adapterReport(content: Content): CheckReport {
-  return checkAdapter(content);
 }
 
 export const KINDS: Record<DocumentKind, KindDefinition> = {
@@ -95,11 +106,13 @@ export const KINDS: Record<DocumentKind, KindDefinition> = {
   adapter: {
     label: 'adapter sheet',
     contentSchema: contentSchemaFor('adapter'),
-    findings(_ctx, content) {
-      const report = adapterReport(content);
-      return { ...report, cautions: adapterCautions(content), report };
+    // Linked ends are checked against their published sheets (one query for both ends);
+    // the findings are the check report: its errors and warnings, and the report itself.
+    async findings(ctx, content) {
+      const { report, linked } = await checkAdapterContent(ctx, content);
+      return { ...report, cautions: adapterCautions(content, linked), report, linked };
     },
-    cautionsNeeded: adapterCautions,
+    cautionsNeeded: (content) => adapterCautions(content),
     summary(title, content) {
       if (text(content.summary)) return text(content.summary);
       const ends = (content.ends ?? {}) as Record<string, Content | null>;
