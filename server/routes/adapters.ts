@@ -3,17 +3,21 @@ import type { AppContext } from '../context';
 import { allow } from '../http/access';
 import { badRequest } from '../errors';
 import { parseAdapterCheckInput } from '../../shared/schemas/adapter';
-import { checkParsedAdapter } from '../../shared/check';
-import { resolveLinkedEnds } from '../services/adapters';
+import { checkAdapterWithLinks } from '../services/adapters';
 
-/** The pin-to-pin check as a service: JSON in, the report out; it changes nothing. */
+/**
+ * The pin-to-pin check as a service: JSON in, the report out; it changes nothing.
+ * Ends that link a published connector sheet (`connectorId`) are checked against the
+ * sheet; a link to a sheet that is not published still answers 200, with an
+ * END_MISSING error that names the sheet.
+ */
 export function adapterRoutes(ctx: AppContext) {
   const r = Router();
   r.post('/check', allow('anyone'), async (req, res) => {
     const parsed = parseAdapterCheckInput(req.body);
     if (!parsed.ok) throw badRequest(parsed.message, parsed.issues);
-    const input = await resolveLinkedEnds(ctx, parsed.data);
-    res.json(checkParsedAdapter(input));
+    const { report } = await checkAdapterWithLinks(ctx, parsed.data);
+    res.json(report);
   });
   return r;
 }

@@ -8,6 +8,8 @@ import { devMailRoutes } from './devMail';
 import { documentRoutes } from './documents';
 import { reviewRoutes } from './review';
 import { meRoutes } from './me';
+import { adapterRoutes } from './adapters';
+import { connectorRoutes } from './connectors';
 
 /** Paths (below /api) that change nothing and so need no CSRF token. */
 export const CSRF_EXEMPT = ['/adapters/check'];
@@ -21,4 +23,6 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/documents', documentRoutes(ctx));
   mount(api, '/review', reviewRoutes(ctx));
   mount(api, '/me', meRoutes());
+  mount(api, '/adapters', adapterRoutes(ctx));
+  mount(api, '/connectors', connectorRoutes(ctx));
 }

@@ -25,6 +25,8 @@ const MATRIX: Record<string, Access> = {
   'GET /api/admin/audit': 'admin',
   'GET /api/dev/mail': 'dev',
   'DELETE /api/dev/mail': 'dev',
+  'POST /api/adapters/check': 'anyone',
+  'GET /api/connectors/': 'anyone',
   'POST /api/documents/': 'verified',
   'GET /api/documents/:idOrSlug': 'anyone',
   'GET /api/documents/:id/editor': 'verified',
