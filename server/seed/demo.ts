@@ -1,6 +1,7 @@
 import type { AppContext } from '../context';
 import { seedAccounts } from './accounts';
 import { seedConnectors } from './connectors';
+import { seedAdapters } from './adapters';
 
 export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
 
@@ -10,6 +11,7 @@ export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
  */
 export const DEMO_STEPS: Array<(ctx: AppContext, users: DemoUsers) => Promise<void>> = [
   seedConnectors,
+  seedAdapters,
 ];
 
 export async function seedDemo(ctx: AppContext) {
