@@ -6,6 +6,7 @@ import type { ConnectorContent, ConnectorView } from '@shared/schemas/connector'
 import { layoutCavities, mirrorLayout, type CavityLayout } from '@shared/connector/layout';
 import { describeWireColor, parseWireColor } from '@shared/wire/colors';
 import { normalizeCavityLabel } from '@shared/wire/cavities';
+import { formatWireSize, parseWireSize } from '@shared/wire/awg';
 import { toPinRow, type PinRow } from './pinTable';
 
 /** The paint of one wire: base and optional tracer stripe, with words for screen readers. */
@@ -96,7 +97,7 @@ export function describeCavity(c: Pick<MapCavity, 'label' | 'pin' | 'paint'>): s
   if (!pin || isEmptyPin(pin)) return `Cavity ${c.label}: no pin recorded`;
   const parts = [pin.role.trim() || 'role not given'];
   if (c.paint.text) parts.push(c.paint.ok ? `${c.paint.code} (${c.paint.words})` : c.paint.words);
-  if (pin.size.trim()) parts.push(pin.size.trim());
+  if (pin.size.trim()) parts.push(sizeText(pin.size));
   if (pin.circuit.trim()) parts.push(`circuit ${pin.circuit.trim()}`);
   if (pin.note.trim()) parts.push(pin.note.trim());
   return `Cavity ${c.label}: ${parts.join(', ')}`;
@@ -110,4 +111,12 @@ function isEmptyPin(pin: PinRow): boolean {
     !pin.circuit.trim() &&
     !pin.note.trim()
   );
+}
+
+/** A wire size as printed on the sheet: "0.5 mm2" reads "0.5 mm²"; unreadable text stays as written. */
+export function sizeText(raw: string | null | undefined): string {
+  const text = (raw ?? '').trim();
+  if (!text) return '';
+  const parsed = parseWireSize(text);
+  return parsed.ok ? formatWireSize(parsed.size) : text;
 }

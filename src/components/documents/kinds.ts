@@ -12,7 +12,7 @@ export const KIND_EDITORS: Partial<Record<DocumentKind, Component>> = {
   connector: defineAsyncComponent(() => import('@/components/connector/ConnectorEditor.vue')),
 };
 
-/** Views take `doc` (the document view from GET /api/documents/:idOrSlug). */
+/** Views take `doc` (the document view from GET /api/documents/:idOrSlug) and `headingLevel` (1 on its own page). */
 export const KIND_VIEWS: Partial<Record<DocumentKind, Component>> = {
   connector: defineAsyncComponent(() => import('@/components/connector/ConnectorSheet.vue')),
 };

@@ -83,3 +83,12 @@ export function cellText(row: Record<string, unknown> | null, col: string): stri
   const v = row?.[col];
   return v === null || v === undefined ? '' : String(v);
 }
+
+/** True for values that say nothing: blank text, empty lists, objects of blanks. */
+export function isBlankValue(value: unknown): boolean {
+  if (value === null || value === undefined) return true;
+  if (typeof value === 'string') return value.trim() === '';
+  if (Array.isArray(value)) return value.every(isBlankValue);
+  if (typeof value === 'object') return Object.values(value as object).every(isBlankValue);
+  return false;
+}
