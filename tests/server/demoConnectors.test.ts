@@ -70,8 +70,13 @@ describe('the demo connector sheets', () => {
   });
 
   it('writes the moderator’s decisions to the audit log', async () => {
-    const count = await env.ctx.models.AuditEntry.count({ where: { action: 'review.publish' } });
-    expect(count).toBe(12);
-    expect(await env.ctx.models.AuditEntry.count({ where: { action: 'review.return' } })).toBe(1);
+    const { AuditEntry, Revision } = env.ctx.models;
+    const connectorRevisions = (
+      await Revision.findAll({ where: { kind: 'connector' }, attributes: ['id'] })
+    ).map((r) => String(r.id));
+    const count = (action: string) =>
+      AuditEntry.count({ where: { action, targetType: 'revision', targetId: connectorRevisions } });
+    expect(await count('review.publish')).toBe(12);
+    expect(await count('review.return')).toBe(1);
   });
 });

@@ -5,7 +5,6 @@ import {
   MAX_CONNECTOR_CAVITIES,
 } from '../../shared/schemas/connector';
 import {
-  contentSchemaFor,
   createDocumentSchema,
   declineDecisionSchema,
   publishDecisionSchema,
@@ -169,7 +168,6 @@ describe('document request schemas', () => {
     expect(s.safeParse({ title: '', content: {}, version: 3 }).success).toBe(true);
     expect(paths(s.safeParse({ title: '', content: {} }))).toEqual(['version']);
     expect(paths(s.safeParse({ title: 'x', content: {}, version: -1 }))).toEqual(['version']);
-    expect(contentSchemaFor('writeup').parse({})).toEqual({ body: '' });
   });
 
   it('needs a note to return or decline, not to publish', () => {
