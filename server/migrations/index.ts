@@ -1,6 +1,7 @@
 import type { QueryInterface } from 'sequelize';
 import * as m0001 from './0001-accounts';
 import * as m0002 from './0002-documents';
+import * as m0004 from './0004-search';
 
 export interface Migration {
   name: string;
@@ -12,4 +13,5 @@ export interface Migration {
 export const migrations: Migration[] = [
   { name: '0001-accounts', ...m0001 },
   { name: '0002-documents', ...m0002 },
+  { name: '0004-search', ...m0004 },
 ];

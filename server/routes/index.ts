@@ -8,6 +8,7 @@ import { devMailRoutes } from './devMail';
 import { documentRoutes } from './documents';
 import { reviewRoutes } from './review';
 import { meRoutes } from './me';
+import { browseRoutes, searchRoutes } from './search';
 import { adapterRoutes } from './adapters';
 import { connectorRoutes } from './connectors';
 
@@ -23,6 +24,8 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/documents', documentRoutes(ctx));
   mount(api, '/review', reviewRoutes(ctx));
   mount(api, '/me', meRoutes());
+  mount(api, '/search', searchRoutes(ctx));
+  mount(api, '/browse', browseRoutes(ctx));
   mount(api, '/adapters', adapterRoutes(ctx));
   mount(api, '/connectors', connectorRoutes(ctx));
 }

@@ -3,6 +3,7 @@ import type { User } from '../models';
 import type { DocumentKind } from '../../shared/schemas/document';
 import { slugify } from '../services/documents';
 import { audit } from '../services/audit';
+import { indexPublished } from '../services/search';
 
 const DAY = 24 * 60 * 60 * 1000;
 
@@ -47,7 +48,7 @@ export async function seedDocument(ctx: AppContext, doc: DemoDocument) {
       },
       { transaction, silent: true },
     );
-    let publishedId: number | null = null;
+    let published: InstanceType<typeof Revision> | null = null;
     for (const [i, r] of doc.revisions.entries()) {
       const submittedAt = new Date(Date.now() - r.daysAgo * DAY);
       const decided = r.state === 'published' || r.state === 'returned' || r.state === 'declined';
@@ -76,7 +77,7 @@ export async function seedDocument(ctx: AppContext, doc: DemoDocument) {
         },
         { transaction, silent: true },
       );
-      if (status === 'published') publishedId = rev.id;
+      if (status === 'published') published = rev;
       if (decided && r.reviewer) {
         const action =
           r.state === 'published' ? 'publish' : r.state === 'returned' ? 'return' : 'decline';
@@ -98,8 +99,10 @@ export async function seedDocument(ctx: AppContext, doc: DemoDocument) {
         );
       }
     }
-    if (publishedId)
-      await document.update({ publishedRevisionId: publishedId }, { transaction, silent: true });
+    if (published) {
+      await document.update({ publishedRevisionId: published.id }, { transaction, silent: true });
+      await indexPublished(document, published, transaction);
+    }
     return { id: document.id, slug };
   });
 }

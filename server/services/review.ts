@@ -18,6 +18,7 @@ import { enqueueMail } from './outbox';
 import { audit } from './audit';
 import { findingsFor, kindOf, reviewChecklist } from './kinds';
 import { revisionJson, userRef } from './documents';
+import { indexPublished } from './search';
 
 export type Decision = 'publish' | 'return' | 'decline';
 
@@ -305,7 +306,15 @@ export async function decide(
       throw claimedByOther(current);
     }
 
-    if (decision === 'publish') await doc.update({ publishedRevisionId: rev.id }, { transaction });
+    if (decision === 'publish') {
+      await doc.update({ publishedRevisionId: rev.id }, { transaction });
+      // Readers find it the moment the decision commits, and never before.
+      await indexPublished(
+        doc,
+        { id: rev.id, title: rev.title, content: rev.content, publishedAt: now },
+        transaction,
+      );
+    }
 
     await audit(
       {
