@@ -108,18 +108,26 @@ export class OutboxWorker {
             messageId: msg.messageId,
             headers: msg.headers ?? undefined,
           });
-          await msg.update({ status: 'sent', sentAt: new Date(), attempts: msg.attempts + 1, lastError: null });
+          // By id: the claim above was a static UPDATE, so this instance still reads
+          // 'queued' and an instance update would skip a status it thinks unchanged.
+          await OutboxMessage.update(
+            { status: 'sent', sentAt: new Date(), attempts: msg.attempts + 1, lastError: null },
+            { where: { id: msg.id } },
+          );
           sent++;
         } catch (err) {
           const attempts = msg.attempts + 1;
           const failed = attempts >= this.opts.maxAttempts;
           const delay = this.opts.baseBackoffMs * 2 ** (attempts - 1);
-          await msg.update({
-            status: failed ? 'failed' : 'queued',
-            attempts,
-            lastError: String((err as Error).message ?? err).slice(0, 1000),
-            nextAttemptAt: new Date(Date.now() + delay),
-          });
+          await OutboxMessage.update(
+            {
+              status: failed ? 'failed' : 'queued',
+              attempts,
+              lastError: String((err as Error).message ?? err).slice(0, 1000),
+              nextAttemptAt: new Date(Date.now() + delay),
+            },
+            { where: { id: msg.id } },
+          );
           const log = { messageId: msg.messageId, to: msg.toAddress, attempts, err: (err as Error).message };
           if (failed) this.opts.logger.error(log, 'e-mail delivery failed for good');
           else this.opts.logger.warn(log, 'e-mail delivery failed; will retry');
