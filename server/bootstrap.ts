@@ -12,6 +12,7 @@ import { LoginThrottle } from './auth/throttle';
 import { startFakeSmtp, type FakeSmtp } from './mail/fakeSmtp';
 import { createTransport } from './mail/transport';
 import { OutboxWorker } from './services/outbox';
+import { startDigestJob } from './services/digest';
 import { seedDemo } from './seed/demo';
 
 /** Reads the development session secret from DATA_DIR, creating it on first start. */
@@ -91,5 +92,6 @@ export async function createContext(config: Config): Promise<AppContext> {
     logger.info('seeded the demo data');
   }
   await outbox.start();
+  ctx.onClose.push(startDigestJob(ctx));
   return ctx;
 }

@@ -2,6 +2,7 @@ import type { QueryInterface } from 'sequelize';
 import * as m0001 from './0001-accounts';
 import * as m0002 from './0002-documents';
 import * as m0004 from './0004-search';
+import * as m0005 from './0005-replies';
 
 export interface Migration {
   name: string;
@@ -14,4 +15,5 @@ export const migrations: Migration[] = [
   { name: '0001-accounts', ...m0001 },
   { name: '0002-documents', ...m0002 },
   { name: '0004-search', ...m0004 },
+  { name: '0005-replies', ...m0005 },
 ];

@@ -6,6 +6,11 @@ import { AuditEntry } from './AuditEntry';
 import { OutboxMessage } from './OutboxMessage';
 import { Document } from './Document';
 import { Revision } from './Revision';
+import { Reply } from './Reply';
+import { ThreadSubscription } from './ThreadSubscription';
+import { NotificationSetting } from './NotificationSetting';
+import { Flag } from './Flag';
+import { Notification } from './Notification';
 
 /** Initialises every model on one connection and wires their associations. */
 export function initModels(sequelize: Sequelize) {
@@ -16,6 +21,11 @@ export function initModels(sequelize: Sequelize) {
   OutboxMessage.initModel(sequelize);
   Document.initModel(sequelize);
   Revision.initModel(sequelize);
+  Reply.initModel(sequelize);
+  ThreadSubscription.initModel(sequelize);
+  NotificationSetting.initModel(sequelize);
+  Flag.initModel(sequelize);
+  Notification.initModel(sequelize);
 
   AuthToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
@@ -30,9 +40,44 @@ export function initModels(sequelize: Sequelize) {
   Revision.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
   Revision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
   Revision.belongsTo(User, { foreignKey: 'claimedById', as: 'claimedBy' });
+  Reply.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Reply.belongsTo(User, { foreignKey: 'hiddenById', as: 'hiddenBy' });
+  Reply.belongsTo(Document, { foreignKey: 'documentId', as: 'document' });
+  ThreadSubscription.belongsTo(Document, { foreignKey: 'documentId', as: 'document' });
+  ThreadSubscription.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Flag.belongsTo(User, { foreignKey: 'reporterId', as: 'reporter' });
+  Flag.belongsTo(User, { foreignKey: 'resolvedById', as: 'resolvedBy' });
+  Flag.belongsTo(Document, { foreignKey: 'documentId', as: 'document' });
+  Flag.belongsTo(Reply, { foreignKey: 'replyId', as: 'reply' });
 
-  return { User, Session, AuthToken, AuditEntry, OutboxMessage, Document, Revision };
+  return {
+    User,
+    Session,
+    AuthToken,
+    AuditEntry,
+    OutboxMessage,
+    Document,
+    Revision,
+    Reply,
+    ThreadSubscription,
+    NotificationSetting,
+    Flag,
+    Notification,
+  };
 }
 
 export type Models = ReturnType<typeof initModels>;
-export { User, Session, AuthToken, AuditEntry, OutboxMessage, Document, Revision };
+export {
+  User,
+  Session,
+  AuthToken,
+  AuditEntry,
+  OutboxMessage,
+  Document,
+  Revision,
+  Reply,
+  ThreadSubscription,
+  NotificationSetting,
+  Flag,
+  Notification,
+};

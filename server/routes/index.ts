@@ -11,9 +11,13 @@ import { meRoutes } from './me';
 import { browseRoutes, searchRoutes } from './search';
 import { adapterRoutes } from './adapters';
 import { connectorRoutes } from './connectors';
+import { replyRoutes, threadRoutes } from './replies';
+import { flagRoutes } from './flags';
+import { notificationRoutes, notificationSettingsRoutes, unsubscribeRoutes } from './notifications';
+import { adminMailRoutes } from './adminMail';
 
 /** Paths (below /api) that change nothing and so need no CSRF token. */
-export const CSRF_EXEMPT = ['/adapters/check'];
+export const CSRF_EXEMPT = ['/unsubscribe', '/adapters/check'];
 
 /** Mounts every resource's router under /api. */
 export function apiRoutes(ctx: AppContext, api: Router) {
@@ -28,4 +32,12 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/browse', browseRoutes(ctx));
   mount(api, '/adapters', adapterRoutes(ctx));
   mount(api, '/connectors', connectorRoutes(ctx));
+  // Replies, thread subscriptions, flags and notifications.
+  mount(api, '/documents', threadRoutes(ctx));
+  mount(api, '/replies', replyRoutes(ctx));
+  mount(api, '/flags', flagRoutes(ctx));
+  mount(api, '/notifications', notificationRoutes());
+  mount(api, '/me', notificationSettingsRoutes(ctx));
+  mount(api, '/unsubscribe', unsubscribeRoutes(ctx));
+  mount(api, '/admin', adminMailRoutes(ctx));
 }

@@ -14,6 +14,7 @@ import { Document, Revision, User } from '../models';
 import type { DocumentKind, RevisionStatus } from '../../shared/schemas/document';
 import { OPEN_STATUSES } from '../../shared/schemas/document';
 import { findingsFor, kindOf, submitGate } from './kinds';
+import { removeFromIndex } from './search';
 
 type Viewer = Pick<Express.User, 'id' | 'role'> | null | undefined;
 type Content = Record<string, unknown>;
@@ -490,4 +491,48 @@ export async function listMine(user: Pick<Express.User, 'id'>) {
       };
     })
     .sort((a, b) => +new Date(b.latest.updatedAt) - +new Date(a.latest.updatedAt));
+}
+
+/**
+ * Takes a published document down and gives it back to its author with a moderator's
+ * note (a flag upheld). With no open revision the published one becomes `returned`;
+ * when a newer revision is already open, that one is returned and the published one
+ * superseded. Readers see nothing until the author submits again and it is published.
+ * Runs in the caller's transaction; the caller audits and tells the author.
+ */
+export async function returnPublishedDocument(
+  input: { documentId: number; moderatorId: number; note: string },
+  transaction: Transaction,
+) {
+  const doc = await Document.findByPk(input.documentId, { transaction });
+  if (!doc?.publishedRevisionId)
+    throw conflict(
+      'NOT_PUBLISHED',
+      'This document is no longer published, so there is nothing to return to its author.',
+    );
+  const published = (await Revision.findByPk(doc.publishedRevisionId, { transaction }))!;
+  const open = await openRevision(doc.id, transaction);
+  const decision = {
+    status: 'returned' as const,
+    reviewerId: input.moderatorId,
+    note: input.note,
+    decidedAt: new Date(),
+    claimedById: null,
+    claimedAt: null,
+  };
+  let returned: Revision;
+  if (open) {
+    await published.update({ status: 'superseded' }, { transaction });
+    returned = await open.update(decision, { transaction });
+  } else {
+    returned = await published.update(decision, { transaction });
+  }
+  await doc.update({ publishedRevisionId: null }, { transaction });
+  await removeFromIndex(doc.id, transaction);
+  return {
+    documentId: doc.id,
+    revisionId: returned.id,
+    number: returned.number,
+    title: returned.title,
+  };
 }

@@ -2,6 +2,9 @@ import crypto from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import type { Transporter } from 'nodemailer';
 import { OutboxMessage } from '../models';
+import type { OutboxStatus } from '../models/OutboxMessage';
+import { HttpError } from '../errors';
+import { audit } from './audit';
 import type { MailContent } from '../mail/templates';
 import type { Logger } from '../logger';
 
@@ -141,4 +144,74 @@ export class OutboxWorker {
     if (this.timer) clearTimeout(this.timer);
     if (this.running) await this.running.catch(() => undefined);
   }
+}
+
+/** One outbox row as the admins' mail page shows it. */
+function outboxJson(m: OutboxMessage) {
+  return {
+    id: m.id,
+    messageId: m.messageId,
+    to: m.toAddress,
+    subject: m.subject,
+    kind: m.kind,
+    status: m.status,
+    attempts: m.attempts,
+    lastError: m.lastError,
+    nextAttemptAt: m.nextAttemptAt,
+    sentAt: m.sentAt,
+    createdAt: m.createdAt,
+  };
+}
+
+/**
+ * The outbox for admins: how many messages are in each state, and the newest ones of
+ * `status` ('all' for every state).
+ */
+export async function listOutbox(status: 'failed' | 'queued' | 'sent' | 'all', limit = 100) {
+  const counts = { queued: 0, sending: 0, sent: 0, failed: 0 };
+  const grouped = (await OutboxMessage.count({ group: ['status'] })) as unknown as Array<{
+    status: OutboxStatus;
+    count: number;
+  }>;
+  for (const g of grouped) counts[g.status] = Number(g.count);
+  const where =
+    status === 'all' ? {} : status === 'queued' ? { status: ['queued', 'sending'] } : { status };
+  const rows = await OutboxMessage.findAll({ where, order: [['id', 'DESC']], limit });
+  return { counts, items: rows.map(outboxJson) };
+}
+
+/**
+ * Sends a failed (or waiting) message again now, with a fresh count of attempts, and
+ * writes who asked to the audit log. Refused for a message that was sent or is being sent.
+ */
+export async function retryOutboxMessage(id: number, actorId: number) {
+  const msg = await OutboxMessage.findByPk(id);
+  if (!msg)
+    throw new HttpError(404, 'NOT_FOUND', 'There is no message with this number in the outbox.');
+  if (msg.status === 'sent' || msg.status === 'sending')
+    throw new HttpError(
+      409,
+      'NOT_RETRYABLE',
+      msg.status === 'sent'
+        ? 'This message was already delivered, so it is not sent again.'
+        : 'This message is being delivered right now. Reload the list in a moment.',
+    );
+  const [changed] = await OutboxMessage.update(
+    { status: 'queued', attempts: 0, nextAttemptAt: new Date() },
+    { where: { id, status: ['queued', 'failed'] } },
+  );
+  if (!changed)
+    throw new HttpError(
+      409,
+      'NOT_RETRYABLE',
+      'This message changed meanwhile. Reload the list and try again.',
+    );
+  await audit({
+    actorId,
+    action: 'mail.retry',
+    targetType: 'mail',
+    targetId: id,
+    details: { to: msg.toAddress, subject: msg.subject, attempts: msg.attempts },
+  });
+  return outboxJson((await OutboxMessage.findByPk(id))!);
 }

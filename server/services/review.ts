@@ -16,6 +16,7 @@ import { diffRevisions } from '../../shared/diff/revisions';
 import { composeMail } from '../mail/templates';
 import { enqueueMail } from './outbox';
 import { audit } from './audit';
+import { notify } from './notifications';
 import { findingsFor, kindOf, reviewChecklist } from './kinds';
 import { revisionJson, userRef } from './documents';
 import { indexPublished } from './search';
@@ -349,6 +350,17 @@ export async function decide(
       await enqueueMail(
         { ...mail, to: author.email, kind: `review.${decision}` },
         { transaction, domain: new URL(ctx.config.publicUrl).hostname || undefined },
+      );
+      await notify(
+        {
+          userId: author.id,
+          kind: 'review',
+          title: mail.subject,
+          body: cleanNote,
+          link:
+            decision === 'publish' ? `/documents/${encodeURIComponent(doc.slug)}` : '/me/documents',
+        },
+        transaction,
       );
     }
     return { revision: revisionJson(await loadRevision(revisionId, transaction)) };

@@ -45,6 +45,28 @@ const MATRIX: Record<string, Access> = {
   'POST /api/review/:revisionId/publish': 'moderator',
   'POST /api/review/:revisionId/return': 'moderator',
   'POST /api/review/:revisionId/decline': 'moderator',
+  // Replies, subscriptions, flags, notifications, unsubscribe links, the outbox for admins
+  'GET /api/documents/:id/replies': 'anyone',
+  'POST /api/documents/:id/replies': 'verified',
+  'GET /api/documents/:id/subscription': 'signedIn',
+  'PUT /api/documents/:id/subscription': 'signedIn',
+  'PATCH /api/replies/:id': 'verified',
+  'DELETE /api/replies/:id': 'signedIn',
+  'POST /api/replies/:id/hide': 'moderator',
+  'POST /api/replies/:id/unhide': 'moderator',
+  'POST /api/replies/:id/answer': 'verified',
+  'DELETE /api/replies/:id/answer': 'verified',
+  'POST /api/flags/': 'signedIn',
+  'GET /api/flags/': 'moderator',
+  'POST /api/flags/:id/resolve': 'moderator',
+  'GET /api/notifications/': 'signedIn',
+  'POST /api/notifications/read': 'signedIn',
+  'GET /api/me/notifications': 'signedIn',
+  'PUT /api/me/notifications': 'signedIn',
+  'GET /api/unsubscribe/': 'anyone',
+  'POST /api/unsubscribe/': 'anyone',
+  'GET /api/admin/mail': 'admin',
+  'POST /api/admin/mail/:id/retry': 'admin',
 };
 
 type Who = 'anonymous' | 'unverified' | 'member' | 'moderator' | 'admin';
