@@ -78,7 +78,7 @@ export function listRoutes(router: { stack: Layer[] }, prefix = ''): RouteInfo[]
     if (layer.route) {
       const first = layer.route.stack[0]?.handle;
       for (const method of Object.keys(layer.route.methods)) {
-        out.push({ method: method.toUpperCase(), path: prefix + layer.route.path, access: first?.[ACCESS_MARK] });
+        out.push({ method: method.toUpperCase(), path: layer.route.path === '/' && prefix ? prefix : prefix + layer.route.path, access: first?.[ACCESS_MARK] });
       }
     } else if (layer.handle?.stack) {
       const sub = layer.handle[MOUNT_PATH] as string | undefined;
