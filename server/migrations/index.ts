@@ -1,6 +1,7 @@
 import type { QueryInterface } from 'sequelize';
 import * as m0001 from './0001-accounts';
 import * as m0002 from './0002-documents';
+import * as m0003 from './0003-uploads';
 import * as m0004 from './0004-search';
 import * as m0005 from './0005-replies';
 
@@ -14,6 +15,7 @@ export interface Migration {
 export const migrations: Migration[] = [
   { name: '0001-accounts', ...m0001 },
   { name: '0002-documents', ...m0002 },
+  { name: '0003-uploads', ...m0003 },
   { name: '0004-search', ...m0004 },
   { name: '0005-replies', ...m0005 },
 ];

@@ -11,6 +11,7 @@ import { ThreadSubscription } from './ThreadSubscription';
 import { NotificationSetting } from './NotificationSetting';
 import { Flag } from './Flag';
 import { Notification } from './Notification';
+import { Upload } from './Upload';
 
 /** Initialises every model on one connection and wires their associations. */
 export function initModels(sequelize: Sequelize) {
@@ -26,6 +27,7 @@ export function initModels(sequelize: Sequelize) {
   NotificationSetting.initModel(sequelize);
   Flag.initModel(sequelize);
   Notification.initModel(sequelize);
+  Upload.initModel(sequelize);
 
   AuthToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
   AuditEntry.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
@@ -49,6 +51,7 @@ export function initModels(sequelize: Sequelize) {
   Flag.belongsTo(User, { foreignKey: 'resolvedById', as: 'resolvedBy' });
   Flag.belongsTo(Document, { foreignKey: 'documentId', as: 'document' });
   Flag.belongsTo(Reply, { foreignKey: 'replyId', as: 'reply' });
+  Upload.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
 
   return {
     User,
@@ -63,6 +66,7 @@ export function initModels(sequelize: Sequelize) {
     NotificationSetting,
     Flag,
     Notification,
+    Upload,
   };
 }
 
@@ -80,4 +84,5 @@ export {
   NotificationSetting,
   Flag,
   Notification,
+  Upload,
 };
