@@ -14,6 +14,11 @@ import { createTransport } from './mail/transport';
 import { OutboxWorker } from './services/outbox';
 import { startDigestJob } from './services/digest';
 import { seedDemo } from './seed/demo';
+import { LocalDiskStorage } from './storage';
+import { ImagePool } from './workers/imagePool';
+
+/** Folders served to browsers as they are: uploads must never be kept inside them. */
+const SERVED_DIRS = ['dist', 'public'].map((d) => path.resolve(import.meta.dirname, '..', d));
 
 /** Reads the development session secret from DATA_DIR, creating it on first start. */
 function developmentSecret(dataDir: string): string {
@@ -66,6 +71,9 @@ export async function createContext(config: Config): Promise<AppContext> {
     idleMs: config.session.idleMs,
   });
 
+  const storage = new LocalDiskStorage(config.uploadDir, SERVED_DIRS);
+  const images = new ImagePool();
+
   const ctx: AppContext = {
     config: resolved,
     logger,
@@ -76,7 +84,9 @@ export async function createContext(config: Config): Promise<AppContext> {
     sessionStore,
     throttle: new LoginThrottle(config.throttle),
     fakeSmtp,
-    onClose: [],
+    images,
+    storage,
+    onClose: [() => images.close()],
     async close() {
       for (const hook of ctx.onClose.reverse()) await hook();
       await outbox.stop();

@@ -7,6 +7,8 @@ import type { OutboxWorker } from './services/outbox';
 import type { SequelizeSessionStore } from './auth/sessionStore';
 import type { FakeSmtp } from './mail/fakeSmtp';
 import type { LoginThrottle } from './auth/throttle';
+import type { ImagePool } from './workers/imagePool';
+import type { BlobStorage } from './storage';
 
 /** Everything a request handler or service may need, built once at start. */
 export interface AppContext {
@@ -20,6 +22,10 @@ export interface AppContext {
   throttle: LoginThrottle;
   /** Present outside production: the local SMTP fake that captures mail. */
   fakeSmtp?: FakeSmtp;
+  /** Worker threads that decode and draw images, off the request thread. */
+  images: ImagePool;
+  /** Where uploaded images are kept: local disk under UPLOAD_DIR by default. */
+  storage: BlobStorage;
   /** Hooks later features add (workers, pools) that must stop with the app. */
   onClose: Array<() => Promise<void> | void>;
   close(): Promise<void>;

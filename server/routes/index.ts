@@ -15,6 +15,7 @@ import { replyRoutes, threadRoutes } from './replies';
 import { flagRoutes } from './flags';
 import { notificationRoutes, notificationSettingsRoutes, unsubscribeRoutes } from './notifications';
 import { adminMailRoutes } from './adminMail';
+import { uploadRoutes } from './uploads';
 
 /** Paths (below /api) that change nothing and so need no CSRF token. */
 export const CSRF_EXEMPT = ['/unsubscribe', '/adapters/check'];
@@ -40,4 +41,5 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/me', notificationSettingsRoutes(ctx));
   mount(api, '/unsubscribe', unsubscribeRoutes(ctx));
   mount(api, '/admin', adminMailRoutes(ctx));
+  mount(api, '/uploads', uploadRoutes(ctx));
 }
