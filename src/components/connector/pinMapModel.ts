@@ -55,14 +55,54 @@ export interface PinMapModel {
   strayPins: PinRow[];
 }
 
-export type MapContent = Pick<
-  ConnectorContent,
-  'cavities' | 'cavityCount' | 'labels' | 'layout' | 'view' | 'pins'
->;
+/**
+ * What the pin map needs from a sheet. Looser than the schema's type so a search result
+ * or a half-typed draft can be drawn too: unknown `view` or `labels` words are ignored.
+ */
+export interface MapContent {
+  cavities?: readonly string[] | null;
+  cavityCount?: number | null;
+  labels?: string | null;
+  layout?: {
+    rows?: number | null;
+    cols?: number | null;
+    positions?: readonly { label: string; row: number; col: number }[];
+  } | null;
+  view?: string | null;
+  pins?: readonly Partial<Record<keyof PinRow, unknown>>[] | null;
+  housing?: string | null;
+  sealed?: boolean | null;
+}
+
+const VIEWS: readonly string[] = ['mating-face', 'wire-side'];
+const SCHEMES: readonly string[] = ['numeric', 'alpha', 'custom'];
+
+/** The fields the shared layout reads, with words it does not know dropped. */
+export function layoutInput(
+  content: MapContent,
+): Pick<ConnectorContent, 'cavities' | 'cavityCount' | 'labels' | 'layout' | 'view'> {
+  return {
+    cavities: content.cavities ? [...content.cavities] : undefined,
+    cavityCount: content.cavityCount ?? null,
+    labels: SCHEMES.includes(content.labels ?? '')
+      ? (content.labels as ConnectorContent['labels'])
+      : null,
+    layout: content.layout
+      ? {
+          rows: content.layout.rows ?? null,
+          cols: content.layout.cols ?? null,
+          ...(content.layout.positions
+            ? { positions: content.layout.positions.map((p) => ({ ...p })) }
+            : {}),
+        }
+      : null,
+    view: VIEWS.includes(content.view ?? '') ? (content.view as ConnectorView) : null,
+  };
+}
 
 /** The drawing of a sheet, as documented or (with `mirrored`) from the other side. */
 export function buildPinMap(content: MapContent, mirrored: boolean): PinMapModel {
-  const documented = layoutCavities(content);
+  const documented = layoutCavities(layoutInput(content));
   const layout = mirrored ? mirrorLayout(documented) : documented;
   const byCavity = new Map<string, PinRow>();
   const strayPins: PinRow[] = [];
@@ -87,8 +127,8 @@ export const VIEW_WORDS: Record<ConnectorView, string> = {
 };
 
 /** "mating face", "wire side", or a plain statement that the sheet does not say. */
-export function viewWords(view: ConnectorView | null | undefined | ''): string {
-  return view ? VIEW_WORDS[view] : 'side not stated';
+export function viewWords(view: string | null | undefined): string {
+  return view && VIEWS.includes(view) ? VIEW_WORDS[view as ConnectorView] : 'side not stated';
 }
 
 /** One cavity in words for its tooltip and for screen readers: "Cavity 3: signal, GN/YE (…), 20 AWG". */
