@@ -25,6 +25,7 @@ function imageHeaders(res: Response, contentType: string, disposition: string) {
   res.setHeader('Cross-Origin-Resource-Policy', 'same-origin');
 }
 
+/** `/api/uploads`: receive an image, serve its copies, and draw annotations onto it. */
 export function uploadRoutes(ctx: AppContext) {
   const r = Router();
   // Eight uploads in memory at once (at most 15 MB each); the rest wait unread.
