@@ -11,6 +11,7 @@ import { meRoutes } from './me';
 import { browseRoutes, searchRoutes } from './search';
 import { adapterRoutes } from './adapters';
 import { connectorRoutes } from './connectors';
+import { writeupRoutes } from './writeups';
 import { replyRoutes, threadRoutes } from './replies';
 import { flagRoutes } from './flags';
 import { notificationRoutes, notificationSettingsRoutes, unsubscribeRoutes } from './notifications';
@@ -33,6 +34,7 @@ export function apiRoutes(ctx: AppContext, api: Router) {
   mount(api, '/browse', browseRoutes(ctx));
   mount(api, '/adapters', adapterRoutes(ctx));
   mount(api, '/connectors', connectorRoutes(ctx));
+  mount(api, '/writeups', writeupRoutes(ctx));
   // Replies, thread subscriptions, flags and notifications.
   mount(api, '/documents', threadRoutes(ctx));
   mount(api, '/replies', replyRoutes(ctx));

@@ -17,6 +17,7 @@ import {
 import { connectorCavityLabels } from '../../shared/connector/layout';
 import type { CheckReport } from '../../shared/check';
 import { checkAdapterContent, type LinkedSheet } from './adapters';
+import { writeupCautionsNeeded, writeupServerFindings, writeupSummary } from './writeups';
 
 /** Findings of any kind: errors, warnings and the cautions its page shows. */
 export interface DocumentFindings {
@@ -128,17 +129,9 @@ export const KINDS: Record<DocumentKind, KindDefinition> = {
   writeup: {
     label: 'write-up',
     contentSchema: contentSchemaFor('writeup'),
-    // The write-up editor adds its own findings (image markings, wire run totals).
-    findings: () => ({ ok: true, errors: [], warnings: [], cautions: [] }),
-    cautionsNeeded: () => [],
-    summary(title, content) {
-      if (text(content.summary)) return text(content.summary);
-      const body = text(content.body)
-        .replace(/[#>*_`[\]()!-]/g, ' ')
-        .replace(/\s+/g, ' ')
-        .trim();
-      return body ? (body.length > 160 ? `${body.slice(0, 157).trimEnd()}…` : body) : title;
-    },
+    findings: (ctx, content) => writeupServerFindings(ctx, content),
+    cautionsNeeded: writeupCautionsNeeded,
+    summary: writeupSummary,
     viewStated: () => null,
   },
 };
@@ -210,14 +203,19 @@ export function reviewChecklist(
     });
   }
   const cautions = def.cautionsNeeded(content);
+  const missing = findings.warnings.filter((f) => f.code === 'CAUTION_MISSING').length;
   items.push({
     key: 'cautions',
     label: 'Cautions are present where fuel, airbag or high-current circuits appear',
-    auto: kind !== 'writeup',
-    ok: kind === 'writeup' ? null : true,
+    auto: true,
+    ok: kind === 'writeup' ? missing === 0 : true,
     detail:
       kind === 'writeup'
-        ? 'Read the text: every step near fuel, airbag or high-current circuits needs its caution block.'
+        ? missing
+          ? `${missing} caution block${missing === 1 ? ' is' : 's are'} missing (see the findings). Read the text too: the check only looks for words.`
+          : cautions.length
+            ? `The text has caution blocks for: ${cautions.join(', ')}. Read the text too: the check only looks for words.`
+            : 'The text mentions no fuel, airbag, battery-feed or high-current work. Read it to be sure.'
         : cautions.length
           ? `The page shows cautions for: ${cautions.join(', ')}.`
           : 'No circuit here needs a special caution.',
