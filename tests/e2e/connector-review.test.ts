@@ -112,6 +112,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
     const colour6 = member.getByLabel('Wire colour, row 6, cavity 6');
     await colour6.fill('BW');
     await member.getByText('"BW" is not a known wire colour', { exact: false }).waitFor();
+    await elementShot(member, 'section[aria-labelledby="lw-ce-pins"]', 'connector-editor-cell-message');
     await colour6.fill('BN');
     await expect(
       member.getByText('"BW" is not a known wire colour', { exact: false }).count(),
