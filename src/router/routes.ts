@@ -33,8 +33,13 @@ export const routes: RouteRecordRaw[] = [
         path: 'search',
         name: 'search',
         component: () => import('@/pages/SearchPage.vue'),
-        props: queryProp('q'),
         meta: { title: 'Search' },
+      },
+      {
+        path: 'browse',
+        name: 'browse',
+        component: () => import('@/pages/BrowsePage.vue'),
+        meta: { title: 'Browse by component and cavity count' },
       },
 
       // ── Documents: connector sheets, adapter sheets, write-ups ─
