@@ -87,6 +87,12 @@ export const routes: RouteRecordRaw[] = [
         props: true,
         meta: { role: 'moderator', title: 'Review' },
       },
+      {
+        path: 'review/flags',
+        name: 'review-flags',
+        component: () => import('@/pages/review/FlagQueuePage.vue'),
+        meta: { role: 'moderator', title: 'Flags' },
+      },
 
       // ── Account ──────────────────────────────────────────────
       {
@@ -94,6 +100,19 @@ export const routes: RouteRecordRaw[] = [
         name: 'account',
         component: () => import('@/pages/AccountPage.vue'),
         meta: { requiresAuth: true, title: 'Your account' },
+      },
+      {
+        path: 'account/notifications',
+        name: 'account-notifications',
+        component: () => import('@/pages/account/NotificationSettingsPage.vue'),
+        meta: { requiresAuth: true, title: 'Notifications' },
+      },
+      {
+        path: 'unsubscribe',
+        name: 'unsubscribe',
+        component: () => import('@/pages/UnsubscribePage.vue'),
+        props: queryProp('token'),
+        meta: { title: 'Unsubscribe' },
       },
       {
         path: 'verify-email',
@@ -120,6 +139,12 @@ export const routes: RouteRecordRaw[] = [
             name: 'admin-audit',
             component: () => import('@/pages/admin/AdminAuditPage.vue'),
             meta: { title: 'Audit log' },
+          },
+          {
+            path: 'mail',
+            name: 'admin-mail',
+            component: () => import('@/pages/admin/AdminMailPage.vue'),
+            meta: { title: 'Outgoing mail' },
           },
         ],
       },
