@@ -1,5 +1,6 @@
 /** The e-mails about replies: one reply, the daily digest, and a moderator's decision on a reply or document. */
 import { serverPurifier } from '../markdown';
+import { escapeHtml } from '../http/escape';
 import { composeMail, type MailContent } from './templates';
 
 /**
@@ -40,7 +41,9 @@ export function mailSafeHtml(html: string, publicUrl: string): string {
       RETURN_TRUSTED_TYPE: false,
     }),
   );
-  return clean.replace(/href="\/(?!\/)/g, `href="${publicUrl}/`);
+  return clean
+    .replace(/href="\/(?!\/)/g, `href="${publicUrl}/`)
+    .replace(/<(p|ul|ol|pre|blockquote)>/g, '<$1 style="margin:0 0 8px">');
 }
 
 export interface ReplyMailInput {
@@ -68,7 +71,7 @@ export function replyMail(i: ReplyMailInput): MailContent {
     action: { label: 'Open the reply', url: i.replyUrl },
     footer: `You get this e-mail because you follow the replies to "${i.documentTitle}" on Loomwright. Wiring work can hurt people and vehicles: follow the vehicle\u2019s service information, local regulations and licensed practice.`,
     footerLinks: [
-      { label: 'Stop e-mails about this thread (one click)', url: i.unsubscribeUrl },
+      { label: 'Stop following this thread (one click)', url: i.unsubscribeUrl },
       { label: 'Choose each reply, a daily digest or no e-mail', url: i.settingsUrl },
     ],
   });
@@ -82,34 +85,39 @@ export interface DigestEntry {
   at: Date;
 }
 
-/** One e-mail with a day's replies, grouped by document. */
+/** One e-mail with a day's replies, grouped by document, each with a link to it. */
 export function digestMail(entries: DigestEntry[], unsubscribeUrl: string, settingsUrl: string) {
   const byDoc = new Map<string, DigestEntry[]>();
   for (const e of entries) byDoc.set(e.documentTitle, [...(byDoc.get(e.documentTitle) ?? []), e]);
-  const paragraphs = [
-    `${entries.length} new ${entries.length === 1 ? 'reply' : 'replies'} in the threads you follow:`,
-  ];
+  const clip = (t: string) => {
+    const flat = t.replace(/\s+/g, ' ').trim();
+    return flat.length > 300 ? `${flat.slice(0, 299)}…` : flat;
+  };
+  const text: string[] = [];
+  const html: string[] = [];
   for (const [title, list] of byDoc) {
-    paragraphs.push(`"${title}" (${list.length})`);
+    text.push(`"${title}" (${list.length})`);
+    html.push(
+      `<p style="margin:8px 0 4px;font-weight:bold">${escapeHtml(title)} (${list.length})</p>`,
+    );
     for (const e of list) {
-      const excerpt = e.text.replace(/\s+/g, ' ').trim();
-      paragraphs.push(
-        `${e.replier} wrote: ${excerpt.length > 300 ? `${excerpt.slice(0, 299)}…` : excerpt}\n${e.url}`,
+      text.push(`${e.replier} wrote: ${clip(e.text)}\n${e.url}`);
+      html.push(
+        `<p style="margin:0 0 8px">${escapeHtml(e.replier)} wrote: ${escapeHtml(clip(e.text))} <a href="${escapeHtml(e.url)}" style="color:#8a4a27">Open</a></p>`,
       );
     }
   }
-  return composeMail(
-    `Your daily digest: ${entries.length} new ${entries.length === 1 ? 'reply' : 'replies'}`,
-    {
-      paragraphs,
-      footer:
-        'You get this digest because you chose one daily e-mail for replies on Loomwright. Wiring work can hurt people and vehicles: follow the vehicle\u2019s service information, local regulations and licensed practice.',
-      footerLinks: [
-        { label: 'Stop reply e-mails (one click)', url: unsubscribeUrl },
-        { label: 'Choose each reply, a daily digest or no e-mail', url: settingsUrl },
-      ],
-    },
-  );
+  const n = `${entries.length} new ${entries.length === 1 ? 'reply' : 'replies'}`;
+  return composeMail(`Your daily digest: ${n}`, {
+    paragraphs: [`${n} in the threads you follow:`],
+    quote: { text: text.join('\n\n'), html: html.join('') },
+    footer:
+      'You get this digest because you chose one daily e-mail for replies on Loomwright. Wiring work can hurt people and vehicles: follow the vehicle\u2019s service information, local regulations and licensed practice.',
+    footerLinks: [
+      { label: 'Stop reply e-mails (one click)', url: unsubscribeUrl },
+      { label: 'Choose each reply, a daily digest or no e-mail', url: settingsUrl },
+    ],
+  });
 }
 
 /** Tells an author a moderator hid their reply. */
