@@ -112,7 +112,11 @@ describe('a connector sheet from draft to published, in the browser', () => {
     const colour6 = member.getByLabel('Wire colour, row 6, cavity 6');
     await colour6.fill('BW');
     await member.getByText('"BW" is not a known wire colour', { exact: false }).waitFor();
-    await elementShot(member, 'section[aria-labelledby="lw-ce-pins"]', 'connector-editor-cell-message');
+    await elementShot(
+      member,
+      'section[aria-labelledby="lw-ce-pins"]',
+      'connector-editor-cell-message',
+    );
     await colour6.fill('BN');
     await expect(
       member.getByText('"BW" is not a known wire colour', { exact: false }).count(),
@@ -120,6 +124,14 @@ describe('a connector sheet from draft to published, in the browser', () => {
 
     await saved(member);
     await screenshot(member, 'connector-editor');
+    await member.getByRole('button', { name: 'Submit for review' }).click();
+    await member.locator('[data-test="status"][data-status="submitted"]').waitFor();
+    // Locked while in review; withdrawing makes it a draft again.
+    await expect(
+      member.getByLabel('Wire colour, row 1, cavity 1').getAttribute('readonly'),
+    ).resolves.not.toBeNull();
+    await member.getByRole('button', { name: 'Withdraw to edit' }).click();
+    await member.locator('[data-test="status"][data-status="draft"]').waitFor();
     await member.getByRole('button', { name: 'Submit for review' }).click();
     await member.locator('[data-test="status"][data-status="submitted"]').waitFor();
 
