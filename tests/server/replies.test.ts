@@ -690,6 +690,64 @@ describe('in-app notifications', () => {
   });
 });
 
+describe('odd input', () => {
+  it('never answers 500 on the reply, flag, notification and unsubscribe routes', async () => {
+    const author = await member();
+    const doc = await publishedSheet(author.client);
+    const r = await reply(author.client, doc.id, 'Anchor reply');
+    const bodies: unknown[] = [
+      {},
+      [],
+      'text',
+      null,
+      { body: null },
+      { body: ['x'] },
+      { body: 'x', parentId: -1 },
+      { body: 'x', parentId: 1e20 },
+      { reason: 'x'.repeat(5000) },
+      { targetType: 'reply', targetId: 1e20, reason: 'spam-abuse' },
+      { targetType: 'user', targetId: 1, reason: 'spam-abuse' },
+      { action: 'delete' },
+      { ids: [1e20, -1] },
+      { subscribed: 'yes' },
+      { emailMode: 'sometimes' },
+      { token: 'u1.1.1.' + 'A'.repeat(43) },
+      { token: 'u1.99999999999.0.' + 'A'.repeat(43) },
+    ];
+    const routes: Array<[string, string]> = [
+      ['post', `/api/documents/${doc.id}/replies`],
+      ['post', '/api/documents/%E0%A4%A/replies'],
+      ['put', `/api/documents/${doc.id}/subscription`],
+      ['put', '/api/documents/abc/subscription'],
+      ['patch', `/api/replies/${r.id}`],
+      ['post', `/api/replies/${r.id}/hide`],
+      ['post', '/api/replies/0/answer'],
+      ['post', '/api/flags'],
+      ['post', '/api/flags/1/resolve'],
+      ['post', '/api/notifications/read'],
+      ['put', '/api/me/notifications'],
+      ['post', '/api/unsubscribe'],
+      ['post', '/api/admin/mail/999999/retry'],
+    ];
+    const who = [author.client, moderator, admin];
+    for (const c of who)
+      for (const [method, url] of routes)
+        for (const body of bodies) {
+          const req = (c.agent as unknown as Record<string, (u: string) => request.Test>)
+            [method](url)
+            .set('X-CSRF-Token', c.csrf)
+            .set('Content-Type', 'application/json')
+            .send(JSON.stringify(body));
+          const res = await req;
+          expect(res.status, `${method} ${url} ${JSON.stringify(body)}`).toBeLessThan(500);
+          expect(res.body.error?.message ?? 'ok', `${method} ${url}`).toMatch(/\w/);
+        }
+    for (const q of ['', '?token=', '?token[]=a', '?token=' + 'x'.repeat(500), '?status=weird'])
+      for (const url of ['/api/unsubscribe', '/api/flags', '/api/admin/mail'])
+        expect((await admin.get(url + q)).status, url + q).toBeLessThan(500);
+  }, 60_000);
+});
+
 // ── A restart with mail still queued ──────────────────────────────────────
 
 function freePort(): Promise<number> {
