@@ -116,6 +116,15 @@ function poolError(err: unknown, ctx: AppContext): never {
   throw err;
 }
 
+function storageError(err: unknown, ctx: AppContext): never {
+  ctx.logger.error({ err }, 'could not store an image');
+  throw new HttpError(
+    503,
+    'STORAGE_UNAVAILABLE',
+    'The image could not be stored right now. Please try again later; nothing was saved.',
+  );
+}
+
 async function keyInUse(key: string): Promise<boolean> {
   return (await Upload.count({ where: where(col('variants'), Op.like, `%"${key}"%`) })) > 0;
 }
@@ -163,11 +172,9 @@ export async function createUpload(
     const created: string[] = [];
     try {
       for (const v of [web, thumb]) {
-        const { created: isNew } = await ctx.storage.put(
-          v.variant.key,
-          v.data,
-          v.variant.contentType,
-        );
+        const { created: isNew } = await ctx.storage
+          .put(v.variant.key, v.data, v.variant.contentType)
+          .catch((err) => storageError(err, ctx));
         if (isNew) created.push(v.variant.key);
       }
       return await Upload.create({

@@ -19,7 +19,7 @@ function isInside(child: string, parent: string): boolean {
  * Blobs in a folder on local disk, two levels of sharding by the key's first characters.
  * Writes go to a temporary file in the same folder tree and are renamed into place, so a
  * reader never sees half a file and a crash leaves at most a stray temporary file, which
- * the next start removes.
+ * a later start removes.
  */
 export class LocalDiskStorage implements BlobStorage {
   private readonly tmpDir: string;
@@ -38,8 +38,17 @@ export class LocalDiskStorage implements BlobStorage {
     }
     this.tmpDir = path.join(this.root, '.tmp');
     fs.mkdirSync(this.tmpDir, { recursive: true });
-    for (const f of fs.readdirSync(this.tmpDir))
-      fs.rmSync(path.join(this.tmpDir, f), { force: true });
+    // Another process (a script, a second server) may be writing here right now, so only
+    // leftovers old enough to be from a crash are removed.
+    const stale = Date.now() - 60 * 60 * 1000;
+    for (const f of fs.readdirSync(this.tmpDir)) {
+      const p = path.join(this.tmpDir, f);
+      try {
+        if (fs.statSync(p).mtimeMs < stale) fs.rmSync(p, { force: true });
+      } catch {
+        // gone already
+      }
+    }
   }
 
   /** The file that holds `key`. */

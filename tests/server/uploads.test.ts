@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { Jimp } from 'jimp';
 import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/context';
 import {
@@ -227,6 +227,40 @@ describe('POST /api/uploads', { timeout: 120_000 }, () => {
         expect(res.body.error.message).toMatch(/\w+ \w+/);
       }
     });
+  });
+
+  it('leaves no file when storing the second copy or writing the row fails', async () => {
+    const storage = env.ctx.storage;
+    const put = storage.put.bind(storage);
+    let calls = 0;
+    storage.put = async (...args) => {
+      if (++calls === 2)
+        throw Object.assign(new Error('no space left on device'), { code: 'ENOSPC' });
+      return put(...args);
+    };
+    try {
+      await expectNothingStored(async () => {
+        const res = await send(owner, await png(120, 90, 21), 'disk-full.png');
+        expect(res.status).toBe(503);
+        expect(res.body.error.message).toMatch(/nothing was saved/);
+      });
+    } finally {
+      storage.put = put;
+    }
+
+    const create = vi
+      .spyOn(Upload, 'create')
+      .mockRejectedValueOnce(
+        Object.assign(new Error('SQLITE_BUSY: database is locked'), { code: 'SQLITE_BUSY' }),
+      );
+    try {
+      await expectNothingStored(async () => {
+        const res = await send(owner, await png(120, 90, 22), 'busy.png');
+        expect(res.status).toBe(503);
+      });
+    } finally {
+      create.mockRestore();
+    }
   });
 
   it('keeps a ../../ file name harmless', async () => {
