@@ -2,6 +2,7 @@ import type { AppContext } from '../context';
 import { seedAccounts } from './accounts';
 import { seedConnectors } from './connectors';
 import { seedAdapters } from './adapters';
+import { seedWriteups } from './writeups';
 import { seedReplies } from './replies';
 
 export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
@@ -13,6 +14,7 @@ export type DemoUsers = Awaited<ReturnType<typeof seedAccounts>>;
 export const DEMO_STEPS: Array<(ctx: AppContext, users: DemoUsers) => Promise<void>> = [
   seedConnectors,
   seedAdapters,
+  seedWriteups,
   seedReplies,
 ];
 
