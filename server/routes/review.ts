@@ -9,6 +9,7 @@ import {
   reviewQueueQuerySchema,
 } from '../../shared/schemas/document';
 import * as review from '../services/review';
+import { composeReturnNote } from '../../shared/writeup/imageNotes';
 import { numericId } from './documents';
 
 export function reviewRoutes(ctx: AppContext) {
@@ -39,8 +40,9 @@ export function reviewRoutes(ctx: AppContext) {
   });
 
   r.post('/:revisionId/return', allow('moderator'), async (req, res) => {
-    const { note } = parseWith(returnDecisionSchema, req.body ?? {});
-    res.json(await review.decide(ctx, req.user!, numericId(req.params.revisionId), 'return', note));
+    const { note, imageNotes } = parseWith(returnDecisionSchema, req.body ?? {});
+    const text = composeReturnNote(note, imageNotes);
+    res.json(await review.decide(ctx, req.user!, numericId(req.params.revisionId), 'return', text));
   });
 
   r.post('/:revisionId/decline', allow('moderator'), async (req, res) => {

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { connectorContentSchema } from './connector';
 import { writeupContentSchema } from './writeup';
 import { adapterCheckInputSchema } from './adapter';
+import { imageNotesSchema } from '../writeup/imageNotes';
 
 export const DOCUMENT_KINDS = ['connector', 'adapter', 'writeup'] as const;
 export const REVISION_STATUSES = [
@@ -98,7 +99,24 @@ export const publishDecisionSchema = z.strictObject({ note: noteText.optional() 
 export const noteRequiredDecisionSchema = z.strictObject({
   note: noteText.min(1, { error: 'is required: tell the author what to change or why' }),
 });
-export const returnDecisionSchema = noteRequiredDecisionSchema;
+/**
+ * `return` may also send single images of a write-up back, each with its own note; they
+ * become lines of the decision's note (see shared/writeup/imageNotes.ts). With image
+ * notes the general note may be left out.
+ */
+export const returnDecisionSchema = z
+  .strictObject({
+    note: noteText.optional().default(''),
+    imageNotes: imageNotesSchema.optional(),
+  })
+  .superRefine((body, ctx) => {
+    if (!body.note && !body.imageNotes?.length)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['note'],
+        message: 'is required: tell the author what to change or why',
+      });
+  });
 export const declineDecisionSchema = noteRequiredDecisionSchema;
 
 const blankToUndefined = (v: unknown) => (v === '' ? undefined : v);
