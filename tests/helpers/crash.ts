@@ -9,20 +9,21 @@ type Ack =
   | { type: 'publish'; documentId: number; revisionId: number };
 
 /** A small HTTP client with cookies and the CSRF token, on plain fetch. */
-class Session {
+export class Session {
   cookie = '';
   csrf = '';
   constructor(private readonly base: string) {}
 
   async call(method: string, path: string, body?: unknown) {
+    const form = body instanceof FormData;
     const res = await fetch(this.base + path, {
       method,
       headers: {
-        'content-type': 'application/json',
+        ...(form ? {} : { 'content-type': 'application/json' }),
         ...(this.cookie ? { cookie: this.cookie } : {}),
         ...(this.csrf ? { 'x-csrf-token': this.csrf } : {}),
       },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : form ? body : JSON.stringify(body),
       signal: AbortSignal.timeout(15_000),
     });
     const set = res.headers.get('set-cookie');
@@ -31,9 +32,9 @@ class Session {
     return { status: res.status, body: text ? JSON.parse(text) : null };
   }
 
-  async signIn(email: string) {
+  async signIn(email: string, password = TEST_PASSWORD) {
     this.csrf = (await this.call('GET', '/api/auth/csrf')).body.token;
-    const res = await this.call('POST', '/api/auth/login', { email, password: TEST_PASSWORD });
+    const res = await this.call('POST', '/api/auth/login', { email, password });
     if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
     this.csrf = res.body.csrfToken ?? this.csrf;
   }
