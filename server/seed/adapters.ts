@@ -1,6 +1,6 @@
 /**
- * Demo adapter sheets in the invented scenario of the connector demo (the Harrow 4.2
- * and 3.6 platforms, the Kestrel T3 engine), linking the published demo connector
+ * Demo adapter sheets in the invented scenario of the connector demo (the Brindlemoor 4.2
+ * and 3.6 platforms, the Quorvane T3 engine), linking the published demo connector
  * sheets: a one-to-one extension, a larger-to-smaller conversion with plugged cavities,
  * one with a spliced ground, one with a wire that leaves through a ring terminal, and a
  * draft by member@ with deliberate mistakes so a new user sees the check at work.
@@ -52,7 +52,7 @@ interface DemoAdapter {
 async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
   return [
     {
-      title: 'Kestrel T3 camshaft sensor extension, 3-way, 400 mm',
+      title: 'Quorvane T3 camshaft sensor extension, 3-way, 400 mm',
       content: {
         systemVoltage: 12,
         ends: {
@@ -75,12 +75,12 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
       },
     },
     {
-      title: 'Harrow 4.2 fuel pump module into the Harrow 3.6 body harness, 10-way to 6-way',
+      title: 'Brindlemoor 4.2 fuel pump module into the Brindlemoor 3.6 body harness, 10-way to 6-way',
       content: {
         systemVoltage: 12,
         ends: {
-          A: await linked(ctx, 'pumpModule', 'Harrow 4.2 fuel pump module plug'),
-          B: await linked(ctx, 'bodyHarness6', 'Harrow 3.6 rear body harness plug'),
+          A: await linked(ctx, 'pumpModule', 'Brindlemoor 4.2 fuel pump module plug'),
+          B: await linked(ctx, 'bodyHarness6', 'Brindlemoor 3.6 rear body harness plug'),
         },
         circuits: wires([
           [
@@ -107,7 +107,7 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
       },
     },
     {
-      title: 'Kestrel T3 control module C2 to an 8-way engine bay bulkhead, spliced ground',
+      title: 'Quorvane T3 control module C2 to an 8-way engine bay bulkhead, spliced ground',
       content: {
         systemVoltage: 12,
         ends: {
@@ -161,7 +161,7 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
       },
     },
     {
-      title: 'Harrow 4.2 cooling fan pigtail, feed through a 1-way plug, ground to a ring terminal',
+      title: 'Brindlemoor 4.2 cooling fan pigtail, feed through a 1-way plug, ground to a ring terminal',
       content: {
         systemVoltage: 12,
         ends: {
@@ -203,7 +203,7 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
 /** The draft member@ finds in My documents: it does not build as written. */
 async function draftWithMistakes(ctx: AppContext): Promise<DemoAdapter> {
   return {
-    title: 'Kestrel T3 throttle body extension, 6-way',
+    title: 'Quorvane T3 throttle body extension, 6-way',
     content: {
       systemVoltage: 12,
       ends: {

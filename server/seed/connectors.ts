@@ -1,6 +1,6 @@
 /**
- * Demo connector sheets of an invented scenario: the Harrow 4.2 and Harrow 3.6 vehicle
- * platforms (body wiring in AWG) and the Kestrel T3 engine (engine harness in mm²).
+ * Demo connector sheets of an invented scenario: the Brindlemoor 4.2 and Brindlemoor 3.6 vehicle
+ * platforms (body wiring in AWG) and the Quorvane T3 engine (engine harness in mm²).
  * Nothing here names a real make, model, brand, part number or person.
  */
 import type { AppContext } from '../context';
@@ -28,13 +28,13 @@ const pins = (rows: Pin[]): PinRow[] =>
     note,
   }));
 
-const HARROW_42 = ['Harrow 4.2 platform'];
-const KESTREL_T3 = ['Kestrel T3 engine'];
+const BRINDLEMOOR_42 = ['Brindlemoor 4.2 platform'];
+const QUORVANE_T3 = ['Quorvane T3 engine'];
 
 /** The published sheets, by a key the other demo steps use. */
 const SHEETS = {
   coolantSensor: {
-    title: 'Kestrel T3 coolant temperature sensor, 3-cavity',
+    title: 'Quorvane T3 coolant temperature sensor, 3-cavity',
     content: {
       cavities: ['A', 'B', 'C'],
       labels: 'alpha',
@@ -43,7 +43,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: true,
       component: 'coolant temperature sensor',
-      tags: [...KESTREL_T3, 'thermostat housing'],
+      tags: [...QUORVANE_T3, 'thermostat housing'],
       terminalSize: '1.5 mm blade',
       wireSize: { min: '0.35 mm²', max: '0.75 mm²' },
       pins: pins([
@@ -69,7 +69,7 @@ const SHEETS = {
     },
   },
   injector: {
-    title: 'Kestrel T3 fuel injector, 2-cavity',
+    title: 'Quorvane T3 fuel injector, 2-cavity',
     content: {
       cavityCount: 2,
       labels: 'numeric',
@@ -78,7 +78,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'fuel injector',
-      tags: [...KESTREL_T3, 'port injection'],
+      tags: [...QUORVANE_T3, 'port injection'],
       terminalSize: '2.8 mm blade',
       wireSize: { min: '0.5 mm²', max: '1 mm²' },
       pins: pins([
@@ -102,7 +102,7 @@ const SHEETS = {
     },
   },
   pedalSensor: {
-    title: 'Harrow 4.2 accelerator pedal position sensor, 6-cavity',
+    title: 'Brindlemoor 4.2 accelerator pedal position sensor, 6-cavity',
     content: {
       cavityCount: 6,
       labels: 'numeric',
@@ -111,7 +111,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: false,
       component: 'accelerator pedal position sensor',
-      tags: [...HARROW_42, 'drive-by-wire'],
+      tags: [...BRINDLEMOOR_42, 'drive-by-wire'],
       terminalSize: '0.64 mm',
       wireSize: { min: '24 AWG', max: '20 AWG' },
       pins: pins([
@@ -132,7 +132,7 @@ const SHEETS = {
     },
   },
   pumpModule: {
-    title: 'Harrow 4.2 fuel pump module plug, 10-cavity',
+    title: 'Brindlemoor 4.2 fuel pump module plug, 10-cavity',
     content: {
       cavityCount: 10,
       labels: 'numeric',
@@ -141,7 +141,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'fuel pump module',
-      tags: [...HARROW_42, 'fuel tank'],
+      tags: [...BRINDLEMOOR_42, 'fuel tank'],
       terminalSize: '1.5 mm blade (1–2), 0.64 mm (3–10)',
       wireSize: { min: '22 AWG', max: '14 AWG' },
       pins: pins([
@@ -166,7 +166,7 @@ const SHEETS = {
     },
   },
   oxygenSensor: {
-    title: 'Kestrel T3 upstream oxygen sensor, 4-cavity',
+    title: 'Quorvane T3 upstream oxygen sensor, 4-cavity',
     content: {
       cavities: ['A', 'B', 'C', 'D'],
       labels: 'custom',
@@ -185,7 +185,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'oxygen sensor (upstream, heated)',
-      tags: [...KESTREL_T3, 'exhaust'],
+      tags: [...QUORVANE_T3, 'exhaust'],
       terminalSize: '1.5 mm blade',
       wireSize: { min: '0.35 mm²', max: '1 mm²' },
       pins: pins([
@@ -206,7 +206,7 @@ const SHEETS = {
     },
   },
   bodyHarness8: {
-    title: 'Harrow 4.2 rear body harness plug, 8-way',
+    title: 'Brindlemoor 4.2 rear body harness plug, 8-way',
     content: {
       cavityCount: 8,
       labels: 'numeric',
@@ -215,7 +215,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: false,
       component: 'body harness (fuel pump branch, under the rear seat)',
-      tags: [...HARROW_42, 'body harness'],
+      tags: [...BRINDLEMOOR_42, 'body harness'],
       terminalSize: '1.5 mm blade (1–2), 0.64 mm (3–8)',
       wireSize: { min: '22 AWG', max: '14 AWG' },
       pins: pins([
@@ -231,7 +231,7 @@ const SHEETS = {
     },
   },
   bodyHarness6: {
-    title: 'Harrow 3.6 rear body harness plug, 6-way',
+    title: 'Brindlemoor 3.6 rear body harness plug, 6-way',
     content: {
       cavityCount: 6,
       labels: 'numeric',
@@ -240,7 +240,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: false,
       component: 'body harness (fuel pump branch, under the rear seat)',
-      tags: ['Harrow 3.6 platform', 'body harness'],
+      tags: ['Brindlemoor 3.6 platform', 'body harness'],
       terminalSize: '1.5 mm blade (1–2), 0.64 mm (3–6)',
       wireSize: { min: '22 AWG', max: '14 AWG' },
       pins: pins([
@@ -254,7 +254,7 @@ const SHEETS = {
     },
   },
   controlModule12: {
-    title: 'Kestrel T3 engine control module plug C2, 12-way',
+    title: 'Quorvane T3 engine control module plug C2, 12-way',
     content: {
       cavityCount: 12,
       labels: 'numeric',
@@ -263,7 +263,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: true,
       component: 'engine control module',
-      tags: [...KESTREL_T3, 'control module'],
+      tags: [...QUORVANE_T3, 'control module'],
       terminalSize: '0.64 mm (5–12), 1.5 mm blade (1–4)',
       wireSize: { min: '0.35 mm²', max: '1.5 mm²' },
       pins: pins([
@@ -283,7 +283,7 @@ const SHEETS = {
     },
   },
   mapSensor: {
-    title: 'Kestrel T3 manifold absolute pressure sensor, 3-cavity',
+    title: 'Quorvane T3 manifold absolute pressure sensor, 3-cavity',
     content: {
       cavityCount: 3,
       labels: 'numeric',
@@ -292,7 +292,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'manifold absolute pressure sensor',
-      tags: [...KESTREL_T3, 'intake manifold'],
+      tags: [...QUORVANE_T3, 'intake manifold'],
       terminalSize: '0.64 mm',
       wireSize: { min: '0.35 mm²', max: '0.75 mm²' },
       pins: pins([
@@ -303,7 +303,7 @@ const SHEETS = {
     },
   },
   camSensor: {
-    title: 'Kestrel T3 camshaft position sensor, 3-cavity',
+    title: 'Quorvane T3 camshaft position sensor, 3-cavity',
     content: {
       cavities: ['A', 'B', 'C'],
       labels: 'alpha',
@@ -312,7 +312,7 @@ const SHEETS = {
       view: 'wire-side',
       sealed: true,
       component: 'camshaft position sensor (Hall effect)',
-      tags: [...KESTREL_T3, 'cylinder head'],
+      tags: [...QUORVANE_T3, 'cylinder head'],
       terminalSize: '0.64 mm',
       wireSize: { min: '0.35 mm²', max: '0.75 mm²' },
       pins: pins([
@@ -323,7 +323,7 @@ const SHEETS = {
     },
   },
   throttleBody: {
-    title: 'Kestrel T3 electronic throttle body, 6-cavity',
+    title: 'Quorvane T3 electronic throttle body, 6-cavity',
     content: {
       cavityCount: 6,
       labels: 'numeric',
@@ -332,7 +332,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'electronic throttle body',
-      tags: [...KESTREL_T3, 'drive-by-wire'],
+      tags: [...QUORVANE_T3, 'drive-by-wire'],
       terminalSize: '0.64 mm',
       wireSize: { min: '0.35 mm²', max: '0.75 mm²' },
       pins: pins([
@@ -353,7 +353,7 @@ const SHEETS = {
     },
   },
   coolingFan: {
-    title: 'Harrow 4.2 radiator cooling fan plug, 2-cavity',
+    title: 'Brindlemoor 4.2 radiator cooling fan plug, 2-cavity',
     content: {
       cavities: ['A', 'B'],
       labels: 'alpha',
@@ -362,7 +362,7 @@ const SHEETS = {
       view: 'mating-face',
       sealed: true,
       component: 'radiator cooling fan motor',
-      tags: [...HARROW_42, 'cooling'],
+      tags: [...BRINDLEMOOR_42, 'cooling'],
       terminalSize: '6.3 mm blade',
       wireSize: { min: '12 AWG', max: '10 AWG' },
       pins: pins([
@@ -470,7 +470,7 @@ export async function seedConnectors(ctx: AppContext, users: DemoUsers) {
     author: juniper,
     revisions: [
       {
-        title: 'Kestrel T3 knock sensor, 2-cavity',
+        title: 'Quorvane T3 knock sensor, 2-cavity',
         state: 'submitted',
         daysAgo: 1,
         content: {
@@ -481,7 +481,7 @@ export async function seedConnectors(ctx: AppContext, users: DemoUsers) {
           view: 'mating-face',
           sealed: true,
           component: 'knock sensor',
-          tags: [...KESTREL_T3, 'engine block'],
+          tags: [...QUORVANE_T3, 'engine block'],
           terminalSize: '1.5 mm blade',
           wireSize: { min: '0.35 mm²', max: '0.75 mm²' },
           pins: pins([
@@ -505,7 +505,7 @@ export async function seedConnectors(ctx: AppContext, users: DemoUsers) {
     author: rook,
     revisions: [
       {
-        title: 'Harrow 4.2 steering column clock spring plug, 6-way',
+        title: 'Brindlemoor 4.2 steering column clock spring plug, 6-way',
         state: 'returned',
         daysAgo: 5,
         reviewer: mod,
@@ -518,7 +518,7 @@ export async function seedConnectors(ctx: AppContext, users: DemoUsers) {
           view: '',
           sealed: false,
           component: 'steering column clock spring',
-          tags: [...HARROW_42, 'steering column'],
+          tags: [...BRINDLEMOOR_42, 'steering column'],
           terminalSize: '0.64 mm',
           wireSize: { min: '22 AWG', max: '20 AWG' },
           pins: pins([

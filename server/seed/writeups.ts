@@ -1,5 +1,5 @@
 /**
- * Demo write-ups in the invented scenario (the Harrow 4.2 platform, the Kestrel T3
+ * Demo write-ups in the invented scenario (the Brindlemoor 4.2 platform, the Quorvane T3
  * engine): a relocated sensor plug with a wire run, a pump plug with a parts list of
  * three build options, and a re-routed fan feed with torque values. Their images are
  * drawings the seed makes itself and stores through the uploads service, so they are
@@ -72,8 +72,8 @@ export async function seedWriteups(ctx: AppContext, users: DemoUsers) {
 
   const coolant: WriteupContent = {
     summary:
-      'The Kestrel T3 coolant sensor plug moved 350 mm along the heater hose to a bracket, with all three wires lengthened by crimped and sealed splices.',
-    body: `Once the taller intake is on, the coolant temperature sensor's plug on the Kestrel T3 sits out of reach under the runners. I moved the plug 350 mm along the heater hose to a bracket on the thermostat housing and lengthened its three wires.
+      'The Quorvane T3 coolant sensor plug moved 350 mm along the heater hose to a bracket, with all three wires lengthened by crimped and sealed splices.',
+    body: `Once the taller intake is on, the coolant temperature sensor's plug on the Quorvane T3 sits out of reach under the runners. I moved the plug 350 mm along the heater hose to a bracket on the thermostat housing and lengthened its three wires.
 
 [[sheet:${DEMO_CONNECTOR_SLUGS.coolantSensor}]]
 
@@ -241,8 +241,8 @@ Start the engine and compare the gauge with a probe thermometer on the housing o
 
   const pump: WriteupContent = {
     summary:
-      'Three ways to reach the Harrow 4.2 pump module plug after moving the pump forward, with a parts list per option.',
-    body: `Moving the Harrow 4.2 fuel pump module forward in the tank carrier leaves its 10-cavity plug 400 mm short of the body loom. There are three ways to bridge it; the parts list compares them.
+      'Three ways to reach the Brindlemoor 4.2 pump module plug after moving the pump forward, with a parts list per option.',
+    body: `Moving the Brindlemoor 4.2 fuel pump module forward in the tank carrier leaves its 10-cavity plug 400 mm short of the body loom. There are three ways to bridge it; the parts list compares them.
 
 [[sheet:${DEMO_CONNECTOR_SLUGS.pumpModule}]]
 
@@ -393,8 +393,8 @@ I built the pigtail. The totals below are my own estimates from what I paid; che
 
   const fanV1: WriteupContent = {
     summary:
-      'The Harrow 4.2 cooling fan feed re-routed along the top rail, away from the exhaust manifold, with its ground stud and fuse holder torques.',
-    body: `The fan feed on the Harrow 4.2 runs below the exhaust manifold, and mine had a cracked jacket after a hot summer. I moved it up to the top rail, where the new route is 180 mm longer and nowhere near the heat.
+      'The Brindlemoor 4.2 cooling fan feed re-routed along the top rail, away from the exhaust manifold, with its ground stud and fuse holder torques.',
+    body: `The fan feed on the Brindlemoor 4.2 runs below the exhaust manifold, and mine had a cracked jacket after a hot summer. I moved it up to the top rail, where the new route is 180 mm longer and nowhere near the heat.
 
 [[sheet:${DEMO_CONNECTOR_SLUGS.coolingFan}]]
 
@@ -476,7 +476,7 @@ Tighten the ground stud and the fuse holder stud in two passes; the values below
     author: sable,
     revisions: [
       {
-        title: 'Moving the Kestrel T3 coolant sensor plug onto a bracket',
+        title: 'Moving the Quorvane T3 coolant sensor plug onto a bracket',
         content: coolant,
         state: 'published',
         daysAgo: 12,
@@ -490,7 +490,7 @@ Tighten the ground stud and the fuse holder stud in two passes; the values below
     author: pell,
     revisions: [
       {
-        title: 'Harrow 4.2 pump module plug: three ways to reach the moved pump',
+        title: 'Brindlemoor 4.2 pump module plug: three ways to reach the moved pump',
         content: pump,
         state: 'published',
         daysAgo: 8,
@@ -503,7 +503,7 @@ Tighten the ground stud and the fuse holder stud in two passes; the values below
     author: tobin,
     revisions: [
       {
-        title: 'Re-routing the Harrow 4.2 cooling fan feed away from the exhaust',
+        title: 'Re-routing the Brindlemoor 4.2 cooling fan feed away from the exhaust',
         content: fanV0,
         state: 'returned',
         daysAgo: 6,
@@ -519,7 +519,7 @@ Tighten the ground stud and the fuse holder stud in two passes; the values below
         ),
       },
       {
-        title: 'Re-routing the Harrow 4.2 cooling fan feed away from the exhaust',
+        title: 'Re-routing the Brindlemoor 4.2 cooling fan feed away from the exhaust',
         content: fanV1,
         state: 'published',
         daysAgo: 4,

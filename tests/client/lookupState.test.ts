@@ -22,7 +22,7 @@ describe('the lookup state in the URL', () => {
       housing: 'socket',
       color: 'gn/ye',
       role: 'signal',
-      tag: 'Kestrel T3 engine',
+      tag: 'Quorvane T3 engine',
       sort: 'newest',
       page: '2',
     };

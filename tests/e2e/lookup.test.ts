@@ -16,7 +16,7 @@ afterAll(async () => {
   await server?.stop();
 });
 
-const COOLANT = 'Kestrel T3 coolant temperature sensor, 3-cavity';
+const COOLANT = 'Quorvane T3 coolant temperature sensor, 3-cavity';
 
 async function resultTitles(page: Page): Promise<string[]> {
   await page.locator('[data-test="results"]').waitFor();
@@ -86,7 +86,7 @@ describe('a reader looking up a connector', () => {
 
       // Open the sheet, then come back with the browser's back button.
       await page.getByRole('link', { name: COOLANT }).click();
-      await page.waitForURL(/\/documents\/kestrel-t3-coolant-temperature-sensor-3-cavity/);
+      await page.waitForURL(/\/documents\/quorvane-t3-coolant-temperature-sensor-3-cavity/);
       await page.getByRole('heading', { name: COOLANT }).first().waitFor();
       await screenshot(page, `lookup-${viewport.name}-sheet`);
       await page.goBack();
@@ -108,7 +108,7 @@ describe('a reader looking up a connector', () => {
     await box.click();
     await box.pressSequentially('pedal', { delay: 40 });
     await page.getByRole('option', { name: /accelerator pedal position sensor, 6-cavity/ }).click();
-    await page.waitForURL(/\/documents\/harrow-4-2-accelerator-pedal-position-sensor-6-cavity/);
+    await page.waitForURL(/\/documents\/brindlemoor-4-2-accelerator-pedal-position-sensor-6-cavity/);
     await page.close();
   }, 60_000);
 
@@ -136,12 +136,12 @@ describe('a reader looking up a connector', () => {
     await page.getByRole('link', { name: 'fuel pump module', exact: true }).click();
     await page.waitForURL(/component=fuel/);
     await settled(page);
-    expect(await resultTitles(page)).toEqual(['Harrow 4.2 fuel pump module plug, 10-cavity']);
+    expect(await resultTitles(page)).toEqual(['Brindlemoor 4.2 fuel pump module plug, 10-cavity']);
     await page.goto(`${server.url}/browse`);
     await screenshot(page, 'lookup-desktop-browse');
     await page.locator('a[href*="cavities=12"]').first().click();
     await settled(page);
-    expect(await resultTitles(page)).toContain('Kestrel T3 engine control module plug C2, 12-way');
+    expect(await resultTitles(page)).toContain('Quorvane T3 engine control module plug C2, 12-way');
     await page.close();
   }, 60_000);
 });

@@ -144,7 +144,7 @@ describe('GET /api/connectors', () => {
     expect(res.body.items.map((i: { slug: string }) => i.slug)).toContain(PUMP);
     const pump = res.body.items.find((i: { slug: string }) => i.slug === PUMP);
     expect(pump).toMatchObject({ cavities: 10, sealed: true, view: 'mating-face' });
-    const tag = await anon.get('/api/connectors?q=kestrel sensor');
+    const tag = await anon.get('/api/connectors?q=quorvane sensor');
     expect(tag.body.items.length).toBeGreaterThan(2);
   });
 

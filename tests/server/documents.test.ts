@@ -32,7 +32,7 @@ const sensor = (over: Partial<ConnectorContent> = {}): ConnectorContent => ({
   view: 'wire-side',
   sealed: true,
   component: 'coolant temperature sensor',
-  tags: ['Harrow 4.2 platform'],
+  tags: ['Brindlemoor 4.2 platform'],
   wireSize: { min: '22 AWG', max: '18 AWG' },
   pins: [
     { cavity: 'A', role: '5 V reference', color: 'GY', size: '20 AWG', circuit: '', note: '' },
@@ -64,13 +64,13 @@ describe('POST /api/documents', () => {
   it('answers 201 with the id, a slug from the title and the first draft revision', async () => {
     const res = await author.post('/api/documents', {
       kind: 'connector',
-      title: 'Kestrel T3 Injector Plug',
+      title: 'Quorvane T3 Injector Plug',
       content: sensor(),
     });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
       id: expect.any(Number),
-      slug: 'kestrel-t3-injector-plug',
+      slug: 'quorvane-t3-injector-plug',
       revision: { id: expect.any(Number), number: 1, status: 'draft', version: 1 },
     });
   });
@@ -191,7 +191,7 @@ describe('GET /api/documents/:idOrSlug', () => {
   it('shows the published revision with owner, reviewer, summary and findings', async () => {
     const doc = await createSheet(
       author,
-      'Harrow coolant sensor',
+      'Brindlemoor coolant sensor',
       sensor({ pins: [...sensor().pins!, { cavity: 'A', role: 'battery feed' }] }),
     );
     await publish(doc.id);
@@ -201,7 +201,7 @@ describe('GET /api/documents/:idOrSlug', () => {
       id: doc.id,
       slug: doc.slug,
       kind: 'connector',
-      title: 'Harrow coolant sensor',
+      title: 'Brindlemoor coolant sensor',
       content: { view: 'wire-side', component: 'coolant temperature sensor' },
       owner: { id: authorId, displayName: expect.any(String) },
       revision: {

@@ -75,7 +75,7 @@ beforeAll(async () => {
       layout: { rows: 1, cols: 3 },
       sealed: true,
       component: 'coolant temperature sensor',
-      tags: ['Harrow 4.2 platform', 'thermostat housing'],
+      tags: ['Brindlemoor 4.2 platform', 'thermostat housing'],
       pins: [
         pin('A', 'signal', 'GN/YE', 'T31', 'to the control module'),
         pin('B', 'low reference', 'BN', 'T32'),
@@ -90,7 +90,7 @@ beforeAll(async () => {
       cavityCount: 10,
       layout: { rows: 2, cols: 5 },
       component: 'fuel pump module',
-      tags: ['Kestrel T3 engine'],
+      tags: ['Quorvane T3 engine'],
       pins: [pin('1', 'battery feed', 'RD', 'F1'), pin('2', 'ground', 'BK', 'G1')],
     }),
   );
@@ -102,7 +102,7 @@ beforeAll(async () => {
       layout: { rows: 2, cols: 3 },
       housing: 'pin',
       component: 'accelerator pedal position sensor',
-      tags: ['Harrow 4.2 platform'],
+      tags: ['Brindlemoor 4.2 platform'],
       pins: [pin('1', '5 V reference', 'GY', 'P11'), pin('2', 'signal', 'VT', 'P12')],
     }),
   );
@@ -183,7 +183,7 @@ describe('GET /api/search', () => {
     expect(item).toMatchObject({
       cavityCount: 3,
       component: 'coolant temperature sensor',
-      tags: ['Harrow 4.2 platform', 'thermostat housing'],
+      tags: ['Brindlemoor 4.2 platform', 'thermostat housing'],
       sealed: true,
       housing: 'socket',
     });
@@ -273,7 +273,7 @@ describe('GET /api/search', () => {
       docs.pump.slug,
     );
     expect(
-      (await search(`tag=${encodeURIComponent('harrow 4.2 PLATFORM')}`)).items
+      (await search(`tag=${encodeURIComponent('brindlemoor 4.2 PLATFORM')}`)).items
         .map((i) => i.slug)
         .sort(),
     ).toEqual([docs.coolant.slug, docs.pedal.slug].sort());
@@ -480,7 +480,7 @@ describe('GET /api/search/suggest', () => {
       count: 1,
     });
     const tags = await reader.get('/api/search/suggest?q=harr');
-    expect(tags.body.items).toContainEqual({ type: 'tag', text: 'Harrow 4.2 platform', count: 2 });
+    expect(tags.body.items).toContainEqual({ type: 'tag', text: 'Brindlemoor 4.2 platform', count: 2 });
     expect((await reader.get('/api/search/suggest?q=')).body).toEqual({ items: [] });
     expect((await reader.get('/api/search/suggest?q=secret')).body.items).toEqual([]);
     expect((await reader.get('/api/search/suggest?q=pu')).status).toBe(200);
@@ -501,6 +501,6 @@ describe('GET /api/browse', () => {
     expect(res.body.components).toContainEqual({ name: 'fuel pump module', count: 1 });
     expect(res.body.cavities).toContainEqual({ cavities: 3, count: 1 });
     expect(res.body.kinds).toContainEqual({ kind: 'adapter', count: 1 });
-    expect(res.body.tags).toContainEqual({ name: 'Harrow 4.2 platform', count: 2 });
+    expect(res.body.tags).toContainEqual({ name: 'Brindlemoor 4.2 platform', count: 2 });
   });
 });

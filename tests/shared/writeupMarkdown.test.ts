@@ -49,14 +49,14 @@ describe('write-up Markdown syntax', () => {
 
   it('renders sheet links as cards on their own line and as links in a sentence', () => {
     const html = md.render(
-      '[[sheet:kestrel-t3-injector]]\n\nSee [[sheet:harrow-pump|the pump plug]].',
+      '[[sheet:quorvane-t3-injector]]\n\nSee [[sheet:brindlemoor-pump|the pump plug]].',
     );
     expect(html).toContain('<div class="lw-md-sheets">');
     expect(html).toContain(
-      '<a class="lw-md-sheet lw-md-sheet--card" href="/documents/kestrel-t3-injector" data-ref="sheet:kestrel-t3-injector">kestrel-t3-injector</a>',
+      '<a class="lw-md-sheet lw-md-sheet--card" href="/documents/quorvane-t3-injector" data-ref="sheet:quorvane-t3-injector">quorvane-t3-injector</a>',
     );
     expect(html).toContain(
-      '<a class="lw-md-sheet" href="/documents/harrow-pump" data-ref="sheet:harrow-pump">the pump plug</a>',
+      '<a class="lw-md-sheet" href="/documents/brindlemoor-pump" data-ref="sheet:brindlemoor-pump">the pump plug</a>',
     );
   });
 
