@@ -222,6 +222,11 @@ async function fetchCsrfToken(signal?: AbortSignal): Promise<string> {
   return csrfPending;
 }
 
+/** The session's CSRF token, for requests made outside this client (uploads with progress). */
+export function getCsrfToken(signal?: AbortSignal): Promise<string> {
+  return fetchCsrfToken(signal);
+}
+
 function networkError(cause: unknown): ApiError | DOMException {
   // An aborted request is the caller's choice, not an error to show.
   if (cause instanceof DOMException && cause.name === 'AbortError') return cause;

@@ -96,11 +96,16 @@ export async function decide(
   decision: Decision,
   note: string,
   options?: RequestOptions,
+  /** Images of a write-up sent back with a return, each with its note. */
+  imageNotes?: Array<{ image: number; uploadId?: string; note: string }>,
 ): Promise<EditorRevision> {
-  const body = await api.post<{ revision: EditorRevision }>(
+  const body: Record<string, unknown> =
+    decision === 'publish' && !note.trim() ? {} : { note: note.trim() };
+  if (decision === 'return' && imageNotes?.length) body.imageNotes = imageNotes;
+  const answer = await api.post<{ revision: EditorRevision }>(
     `/api/review/${enc(revisionId)}/${decision}`,
-    decision === 'publish' && !note.trim() ? {} : { note: note.trim() },
+    body,
     options,
   );
-  return body.revision;
+  return answer.revision;
 }

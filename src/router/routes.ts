@@ -53,6 +53,19 @@ export const routes: RouteRecordRaw[] = [
         meta: { verified: true, title: 'New connector sheet' },
       },
       {
+        path: 'writeups/new',
+        name: 'writeups-new',
+        component: () => import('@/pages/documents/DocumentEditPage.vue'),
+        props: { kind: 'writeup' },
+        meta: { verified: true, title: 'New write-up' },
+      },
+      {
+        path: 'writeups',
+        name: 'writeups',
+        component: () => import('@/pages/writeups/WriteupsPage.vue'),
+        meta: { title: 'Write-ups' },
+      },
+      {
         path: 'documents/:id(\\d+)/edit',
         name: 'document-edit',
         component: () => import('@/pages/documents/DocumentEditPage.vue'),

@@ -1,5 +1,6 @@
 /** Words and values for the revision diff, kept out of the component for testing. */
 import type { RowDiff, RowStatus } from '@shared/diff/revisions';
+import { writeupFieldText } from '@/components/writeup/diffText';
 
 export const FIELD_LABELS: Record<string, string> = {
   cavities: 'Cavity labels',
@@ -18,6 +19,10 @@ export const FIELD_LABELS: Record<string, string> = {
   body: 'Text',
   pins: 'Pin table',
   circuits: 'Circuits',
+  images: 'Images',
+  wireRun: 'Wire run',
+  parts: 'Parts list',
+  specs: 'Values',
 };
 
 export function fieldLabel(field: string): string {
@@ -39,6 +44,8 @@ const WORDS: Record<string, string> = {
 /** A stored value as a reader would write it. */
 export function formatValue(field: string, value: unknown): string {
   if (value === null || value === undefined || value === '') return '(none)';
+  const words = writeupFieldText(field, value);
+  if (words !== null) return words;
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value === 'string') return WORDS[value] ?? value;
   if (typeof value === 'number') return String(value);
