@@ -215,7 +215,7 @@ export function reviewChecklist(
           ? `${missing} caution block${missing === 1 ? ' is' : 's are'} missing (see the findings). Read the text too: the check only looks for words.`
           : cautions.length
             ? `The text has caution blocks for: ${cautions.join(', ')}. Read the text too: the check only looks for words.`
-            : 'The text mentions no fuel, airbag, battery-feed or high-current work. Read it to be sure.'
+            : 'Outside its caution blocks the text mentions no fuel, airbag, battery-feed or high-current work. Read it to be sure.'
         : cautions.length
           ? `The page shows cautions for: ${cautions.join(', ')}.`
           : 'No circuit here needs a special caution.',
