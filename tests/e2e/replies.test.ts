@@ -94,13 +94,14 @@ describe('replies in the browser', () => {
     expect(a.url()).toContain(`/documents/${SLUG}#reply-${replyId}`);
     await expect.poll(() => target.getAttribute('class')).toContain('lw-reply--highlight');
     expect(await target.textContent()).toContain('About 28 A at full speed');
-    // Scrolled into view (smoothly, so give it a moment).
     await expect
-      .poll(() =>
-        target.evaluate((el) => {
-          const r = el.getBoundingClientRect();
-          return r.top >= 0 && r.bottom <= window.innerHeight;
-        }),
+      .poll(
+        () =>
+          target.evaluate((el) => {
+            const r = el.getBoundingClientRect();
+            return r.top >= 0 && r.bottom <= window.innerHeight;
+          }),
+        { timeout: 5000 },
       )
       .toBe(true);
     await screenshot(a, 'replies-4-followed-link');
