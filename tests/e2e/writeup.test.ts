@@ -335,6 +335,9 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     const phone = await newPage({ width: 375, height: 812 });
     await phone.goto(`${server.url}/documents/${parts.slug}`);
     await phone.locator('[data-test="parts-list"]').waitFor();
+    expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
+      375,
+    );
     await imagesLoaded(phone);
     await screenshot(phone, 'writeup-demo-parts-phone');
   }, 120_000);
