@@ -22,8 +22,8 @@ afterAll(async () => {
   await server?.stop();
 });
 
-async function newPage(viewport = { width: 1280, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
+async function newPage(viewport = { width: 1280, height: 900 }, hasTouch = false): Promise<Page> {
+  const context = await browser.newContext({ viewport, hasTouch, isMobile: hasTouch });
   contexts.push(context);
   const page = await context.newPage();
   page.setDefaultTimeout(20_000);
@@ -310,11 +310,22 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     await phone.locator('[data-test="markings-all"]').click();
     await elementShot(phone, fig1, 'writeup-figure-phone-markings-off');
 
-    const phoneEditor = await newPage({ width: 375, height: 812 });
+    // On a touch screen: a tap places a marker on the second photo (this starts a new draft).
+    const phoneEditor = await newPage({ width: 375, height: 812 }, true);
     await signIn(phoneEditor, 'member@example.test');
     await phoneEditor.goto(`${server.url}/documents/${docId}/edit`);
     await phoneEditor.locator('[data-test="body"]').waitFor();
     await screenshot(phoneEditor, 'writeup-editor-phone');
+    await phoneEditor.locator('[data-test="annotate-2"]').tap();
+    const touchStage = phoneEditor.locator('[data-test="annotator-layer"]');
+    await touchStage.waitFor();
+    await phoneEditor.waitForTimeout(300);
+    const tb = (await touchStage.boundingBox())!;
+    await phoneEditor.touchscreen.tap(tb.x + tb.width * 0.5, tb.y + tb.height * 0.5);
+    await expect(
+      phoneEditor.locator('[data-test="annotator"] g[data-type="marker"]').count(),
+    ).resolves.toBe(1);
+    await screenshot(phoneEditor, 'writeup-annotator-phone');
   }, 300_000);
 
   it('shows the demo write-ups with their drawn images, wire run and parts options', async () => {
