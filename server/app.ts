@@ -14,6 +14,8 @@ import { configurePassport } from './auth/passport';
 import { apiRoutes, CSRF_EXEMPT } from './routes';
 
 export const SESSION_COOKIE = 'lw.sid';
+/** API paths (below /api) whose GETs read published data only and never touch a session. */
+const PUBLIC_READS = ['/search', '/browse', '/documents/'];
 const CLIENT_DIR = path.resolve(import.meta.dirname, '..', 'dist');
 
 /** Builds the Express app on a ready context, without listening. */
@@ -62,25 +64,37 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb', strict: false }));
+  // A reader without a session cookie has no session to find, and public reads never
+  // start one: they skip the session, passport and their per-request hashing.
+  const anonymousRead = (req: express.Request) =>
+    (req.method === 'GET' || req.method === 'HEAD') &&
+    !req.headers.cookie?.includes(`${SESSION_COOKIE}=`) &&
+    PUBLIC_READS.some((prefix) => req.path.startsWith(prefix));
+  const unlessAnonymousRead =
+    (mw: express.RequestHandler): express.RequestHandler =>
+    (req, res, next) =>
+      anonymousRead(req) ? next() : mw(req, res, next);
   api.use(
-    session({
-      name: SESSION_COOKIE,
-      secret: config.sessionSecret ?? 'unset',
-      store: ctx.sessionStore,
-      resave: false,
-      saveUninitialized: false,
-      rolling: true,
-      cookie: {
-        httpOnly: true,
-        sameSite: 'lax',
-        secure: config.isProduction,
-        maxAge: config.session.idleMs,
-      },
-    }),
+    unlessAnonymousRead(
+      session({
+        name: SESSION_COOKIE,
+        secret: config.sessionSecret ?? 'unset',
+        store: ctx.sessionStore,
+        resave: false,
+        saveUninitialized: false,
+        rolling: true,
+        cookie: {
+          httpOnly: true,
+          sameSite: 'lax',
+          secure: config.isProduction,
+          maxAge: config.session.idleMs,
+        },
+      }),
+    ),
   );
   configurePassport();
-  api.use(passport.initialize());
-  api.use(passport.session());
+  api.use(unlessAnonymousRead(passport.initialize()));
+  api.use(unlessAnonymousRead(passport.session()));
   api.use(csrfProtection(CSRF_EXEMPT));
   apiRoutes(ctx, api);
   api.use((req, _res, next) => {

@@ -18,6 +18,8 @@ const envSchema = z.object({
   SEED_DEMO: z.enum(['true', 'false']).optional(),
   // Lower scrypt cost for test servers only; refused in production.
   PASSWORD_HASH_N: z.coerce.number().int().min(1024).max(2 ** 20).optional(),
+  // Off only to measure reads without their caches.
+  ANSWER_CACHE: z.enum(['on', 'off']).optional(),
 });
 
 /** The demo password the README gives for the local demo. */
@@ -51,6 +53,8 @@ export interface Config {
   session: { idleMs: number; absoluteMs: number };
   throttle: { perAccount: number; perIp: number; windowMs: number };
   outbox: { pollMs: number; maxAttempts: number; baseBackoffMs: number };
+  /** Keep search answers and published views until the index changes (on unless ANSWER_CACHE=off). */
+  answerCache: boolean;
 }
 
 export class ConfigError extends Error {}
@@ -103,6 +107,7 @@ export function loadConfig(
     session: { idleMs: 12 * 60 * 60 * 1000, absoluteMs: 7 * 24 * 60 * 60 * 1000 },
     throttle: { perAccount: 5, perIp: 30, windowMs: 15 * 60 * 1000 },
     outbox: { pollMs: 1000, maxAttempts: 6, baseBackoffMs: 2000 },
+    answerCache: e.ANSWER_CACHE !== 'off',
     ...overrides,
   };
   return config;

@@ -4,27 +4,40 @@ import { sequelizeRunner } from '../search/store';
 
 /**
  * The search index over published documents: a contentless FTS5 trigram table (the
- * text lives in search_docs, and contentless_delete lets a superseded revision leave
- * by rowid), the facet table the filters and sorts read, facet values, and the typo
- * vocabulary. Then indexes whatever was published before this migration.
+ * text lives in search_texts, and contentless_delete lets a superseded revision leave
+ * by rowid), a narrow facet table the filters, sorts and ranking read, facet values,
+ * and the typo vocabulary. Then indexes whatever was published before this migration.
  */
 export async function up({ context: qi }: { context: QueryInterface }) {
   const sql = sequelizeRunner(qi.sequelize);
   const statements = [
+    // Narrow: what filters, sorts and ranking read for every match.
     `CREATE TABLE search_docs (
       document_id INTEGER PRIMARY KEY,
-      revision_id INTEGER NOT NULL,
       kind TEXT NOT NULL,
-      slug TEXT NOT NULL,
-      title TEXT NOT NULL,
-      summary TEXT NOT NULL DEFAULT '',
-      component TEXT NOT NULL DEFAULT '',
-      component_key TEXT NOT NULL DEFAULT '',
       cavity_count INTEGER,
       cavity_count_b INTEGER,
       sealed INTEGER,
       housing TEXT,
-      published_at INTEGER NOT NULL,
+      component_key TEXT NOT NULL DEFAULT '',
+      title_key TEXT NOT NULL DEFAULT '',
+      tags_key TEXT NOT NULL DEFAULT '',
+      title_len INTEGER NOT NULL DEFAULT 0,
+      published_at INTEGER NOT NULL
+    )`,
+    `CREATE INDEX search_docs_published ON search_docs (published_at DESC, document_id DESC)`,
+    `CREATE INDEX search_docs_kind ON search_docs (kind, published_at DESC)`,
+    `CREATE INDEX search_docs_cavities ON search_docs (cavity_count, published_at DESC)`,
+    `CREATE INDEX search_docs_cavities_b ON search_docs (cavity_count_b) WHERE cavity_count_b IS NOT NULL`,
+    `CREATE INDEX search_docs_component ON search_docs (component_key, published_at DESC)`,
+    // Wide: what a page of results shows, read for the page only.
+    `CREATE TABLE search_texts (
+      document_id INTEGER PRIMARY KEY,
+      revision_id INTEGER NOT NULL,
+      slug TEXT NOT NULL,
+      title TEXT NOT NULL,
+      summary TEXT NOT NULL DEFAULT '',
+      component TEXT NOT NULL DEFAULT '',
       tags_text TEXT NOT NULL DEFAULT '',
       pins_text TEXT NOT NULL DEFAULT '',
       body_text TEXT NOT NULL DEFAULT '',
@@ -32,11 +45,6 @@ export async function up({ context: qi }: { context: QueryInterface }) {
       words TEXT NOT NULL DEFAULT '',
       card TEXT NOT NULL
     )`,
-    `CREATE INDEX search_docs_published ON search_docs (published_at DESC, document_id DESC)`,
-    `CREATE INDEX search_docs_kind ON search_docs (kind, published_at DESC)`,
-    `CREATE INDEX search_docs_cavities ON search_docs (cavity_count, published_at DESC)`,
-    `CREATE INDEX search_docs_cavities_b ON search_docs (cavity_count_b) WHERE cavity_count_b IS NOT NULL`,
-    `CREATE INDEX search_docs_component ON search_docs (component_key, published_at DESC)`,
     `CREATE TABLE search_values (
       facet TEXT NOT NULL,
       value TEXT NOT NULL,
@@ -49,8 +57,6 @@ export async function up({ context: qi }: { context: QueryInterface }) {
       title, component, tags, pins, body,
       content='', contentless_delete=1, tokenize='trigram remove_diacritics 1'
     )`,
-    // Title matches count most, then the component and tags, then the rest.
-    `INSERT INTO search_fts (search_fts, rank) VALUES ('rank', 'bm25(8.0, 5.0, 3.0, 1.0, 1.0)')`,
     `CREATE TABLE search_words (
       id INTEGER PRIMARY KEY,
       word TEXT NOT NULL UNIQUE,
@@ -73,6 +79,7 @@ export async function down({ context: qi }: { context: QueryInterface }) {
     'search_words',
     'search_fts',
     'search_values',
+    'search_texts',
     'search_docs',
   ])
     await sql.run(`DROP TABLE IF EXISTS ${t}`);

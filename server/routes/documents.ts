@@ -9,6 +9,8 @@ import {
   saveDraftSchemaFor,
 } from '../../shared/schemas/document';
 import * as documents from '../services/documents';
+import { publishedView } from '../services/publicViews';
+import { sendPrepared } from '../http/prepared';
 
 /** A numeric `:id`; anything else names nothing. */
 export function numericId(raw: unknown): number {
@@ -27,7 +29,16 @@ export function documentRoutes(ctx: AppContext) {
 
   r.get('/:idOrSlug', allow('anyone'), async (req, res) => {
     const { revision } = parseWith(revisionQuerySchema, req.query);
-    res.json(await documents.getDocumentView(ctx, req.user, String(req.params.idOrSlug), revision));
+    const idOrSlug = String(req.params.idOrSlug);
+    // Without ?revision everyone sees the same published view, so it can be kept.
+    if (revision === undefined) {
+      const view = await publishedView(ctx, idOrSlug, () =>
+        documents.getDocumentView(ctx, req.user, idOrSlug),
+      );
+      sendPrepared(res, view);
+      return;
+    }
+    res.json(await documents.getDocumentView(ctx, req.user, idOrSlug, revision));
   });
 
   r.get('/:id/editor', allow('verified'), async (req, res) => {

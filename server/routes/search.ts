@@ -2,6 +2,7 @@ import { Router } from 'express';
 import type { AppContext } from '../context';
 import { allow } from '../http/access';
 import { parseQuery } from '../http/query';
+import { sendPrepared } from '../http/prepared';
 import { SEARCH_PARAMS, searchQuerySchema, suggestQuerySchema } from '../../shared/schemas/search';
 import * as search from '../services/search';
 
@@ -11,7 +12,7 @@ export function searchRoutes(ctx: AppContext) {
 
   r.get('/', allow('anyone'), async (req, res) => {
     const query = parseQuery(searchQuerySchema, req.query, SEARCH_PARAMS);
-    res.json(await search.search(ctx, query));
+    sendPrepared(res, await search.searchPrepared(ctx, query));
   });
 
   r.get('/suggest', allow('anyone'), async (req, res) => {

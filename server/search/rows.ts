@@ -39,6 +39,9 @@ export interface IndexRow {
   summary: string;
   component: string;
   componentKey: string;
+  /** Folded title and tags: where the ranking looks for the words. */
+  titleKey: string;
+  tagsKey: string;
   cavityCount: number | null;
   cavityCountB: number | null;
   sealed: 0 | 1 | null;
@@ -271,6 +274,8 @@ export function buildIndexRow(doc: IndexDoc, revision: IndexRevision): IndexRow 
     summary,
     component,
     componentKey: fold(component).replace(/\s+/g, ' ').trim(),
+    titleKey: fold(title),
+    tagsKey: fold(tags.join(' | ')),
     cavityCount,
     cavityCountB,
     sealed,

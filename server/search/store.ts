@@ -5,7 +5,8 @@
  *
  * Tables (migration 0004):
  * - search_fts: contentless FTS5, trigram tokenizer; rowid = document id
- * - search_docs: one row per published document, the columns filters and sorts read
+ * - search_docs: one narrow row per published document, what filters, sorts and ranking read
+ * - search_texts: the same documents' texts and prepared result cards, read for a page only
  * - search_values: (facet, value, document id) for colours, roles and tags
  * - search_words / search_words_fts: the typo vocabulary, with how many documents use each word
  */
@@ -56,18 +57,25 @@ const tuples = (rows: number, cols: number) =>
 
 const DOC_COLUMNS = [
   'document_id',
-  'revision_id',
   'kind',
-  'slug',
-  'title',
-  'summary',
-  'component',
-  'component_key',
   'cavity_count',
   'cavity_count_b',
   'sealed',
   'housing',
+  'component_key',
+  'title_key',
+  'tags_key',
+  'title_len',
   'published_at',
+] as const;
+
+const TEXT_COLUMNS = [
+  'document_id',
+  'revision_id',
+  'slug',
+  'title',
+  'summary',
+  'component',
   'tags_text',
   'pins_text',
   'body_text',
@@ -79,18 +87,27 @@ const DOC_COLUMNS = [
 function docValues(r: IndexRow): unknown[] {
   return [
     r.documentId,
-    r.revisionId,
     r.kind,
-    r.slug,
-    r.title,
-    r.summary,
-    r.component,
-    r.componentKey,
     r.cavityCount,
     r.cavityCountB,
     r.sealed,
     r.housing,
+    r.componentKey,
+    r.titleKey,
+    r.tagsKey,
+    r.title.length,
     r.publishedAt,
+  ];
+}
+
+function textValues(r: IndexRow): unknown[] {
+  return [
+    r.documentId,
+    r.revisionId,
+    r.slug,
+    r.title,
+    r.summary,
+    r.component,
     r.tagsText,
     r.pinsText,
     r.bodyText,
@@ -104,7 +121,7 @@ function docValues(r: IndexRow): unknown[] {
 async function removeRows(sql: SqlRunner, ids: number[], deltas: Map<string, number>) {
   for (const part of chunks(ids, 500)) {
     const old = await sql.all<{ words: string }>(
-      `SELECT words FROM search_docs WHERE document_id IN (${marks(part.length)})`,
+      `SELECT words FROM search_texts WHERE document_id IN (${marks(part.length)})`,
       part,
     );
     for (const row of old)
@@ -112,6 +129,7 @@ async function removeRows(sql: SqlRunner, ids: number[], deltas: Map<string, num
     const list = marks(part.length);
     await sql.run(`DELETE FROM search_fts WHERE rowid IN (${list})`, part);
     await sql.run(`DELETE FROM search_values WHERE document_id IN (${list})`, part);
+    await sql.run(`DELETE FROM search_texts WHERE document_id IN (${list})`, part);
     await sql.run(`DELETE FROM search_docs WHERE document_id IN (${list})`, part);
   }
 }
@@ -184,6 +202,10 @@ export async function writeIndexRows(
       part.flatMap(docValues),
     );
     await sql.run(
+      `INSERT INTO search_texts (${TEXT_COLUMNS.join(', ')}) VALUES ${tuples(part.length, TEXT_COLUMNS.length)}`,
+      part.flatMap(textValues),
+    );
+    await sql.run(
       `INSERT INTO search_fts (rowid, title, component, tags, pins, body) VALUES ${tuples(part.length, 6)}`,
       part.flatMap((r) => [r.documentId, ...r.fts]),
     );
@@ -209,6 +231,7 @@ export async function removeIndexRows(sql: SqlRunner, ids: number[]): Promise<vo
 export async function clearIndex(sql: SqlRunner): Promise<void> {
   await sql.run(`INSERT INTO search_fts (search_fts) VALUES ('delete-all')`);
   await sql.run(`DELETE FROM search_values`);
+  await sql.run(`DELETE FROM search_texts`);
   await sql.run(`DELETE FROM search_docs`);
   await sql.run(`INSERT INTO search_words_fts (search_words_fts) VALUES ('delete-all')`);
   await sql.run(`DELETE FROM search_words`);

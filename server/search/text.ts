@@ -38,12 +38,17 @@ function foldChar(c: string): string {
  */
 export function fold(s: string): string {
   const n = normalizeForIndex(s);
-  // Plain ASCII is the common case and lower-casing it keeps the length.
-  if (/^[\x00-\x7f]*$/.test(n)) return n.toLowerCase();
+  const lower = n.toLowerCase();
+  // Plain ASCII is the common case; otherwise only accented letters need more work,
+  // unless lower-casing changed the length (rare: then character by character).
+  if (/^[\x00-\x7f]*$/.test(n)) return lower;
+  if (lower.length === n.length) return lower.replace(ACCENTED, foldChar);
   let out = '';
   for (let i = 0; i < n.length; i++) out += foldChar(n[i]);
   return out;
 }
+
+const ACCENTED = /[\u00c0-\u024f\u1e00-\u1eff]/g;
 
 /** One unit of a query: a phrase (several words in order) or a single word. */
 export interface QueryTerm {
@@ -203,7 +208,10 @@ const isWordChar = (c: string | undefined) => !!c && /[\p{L}\p{N}]/u.test(c);
 /** Where any of `needles` (folded) occur in `text`, merged, in order. */
 export function findRanges(text: string, needles: string[]): Range[] {
   if (!text || !needles.length) return [];
-  const hay = fold(text);
+  return rangesIn(fold(text), needles);
+}
+
+function rangesIn(hay: string, needles: string[]): Range[] {
   const found: Range[] = [];
   for (const needle of needles) {
     if (!needle) continue;
@@ -241,10 +249,10 @@ const LEAD = 50;
 export function makeSnippet(fields: string[], needles: string[], fallback: string): Snippet {
   let best: { text: string; ranges: Range[]; score: number } | null = null;
   for (const field of fields) {
-    if (!field) continue;
-    const ranges = findRanges(field, needles);
-    if (!ranges.length) continue;
+    if (!field || !needles.length) continue;
     const hay = fold(field);
+    const ranges = rangesIn(hay, needles);
+    if (!ranges.length) continue;
     const score = needles.filter((n) => n && hay.includes(n)).length;
     if (!best || score > best.score) best = { text: field, ranges, score };
   }

@@ -15,12 +15,15 @@
  *    words are compared with the vocabulary words of about their length. The closest
  *    word within a small edit distance (transpositions count as one edit) replaces
  *    it, and the search runs once more. The answer says what was searched instead.
+ * Relevance is where the words occur (title, then component, then tags, then
+ * anywhere), then the shorter title, then the newest.
  * Each request runs a small, bounded number of statements: one for the page and
  * one for the total (skipped when the first page is not full), plus at most four
  * vocabulary look-ups and one more search on the typo path.
  */
 import type { Sequelize, Transaction } from 'sequelize';
 import type { AppContext } from '../context';
+import { prepare, type Prepared } from '../http/prepared';
 import {
   DEFAULT_SEARCH_LIMIT,
   type BrowseAnswer,
@@ -32,6 +35,7 @@ import {
   type Suggestion,
 } from '../../shared/schemas/search';
 import type { DocumentKind } from '../../shared/schemas/document';
+import { parseWireColor } from '../../shared/wire/colors';
 import { buildIndexRow, type IndexDoc, type IndexRevision } from '../search/rows';
 import {
   clearIndex,
@@ -72,20 +76,28 @@ interface Facets {
 }
 
 /** Per database: a counter that rises with every committed index change, and facets read at one count. */
-const caches = new WeakMap<
-  Sequelize,
-  { generation: number; facets?: { at: number; value: Promise<Facets> } }
->();
-
-function cacheOf(sequelize: Sequelize) {
-  let c = caches.get(sequelize);
-  if (!c) caches.set(sequelize, (c = { generation: 0 }));
-  return c;
+interface SearchCache {
+  /** Rises with every committed change of the index; cached entries name the one they were read at. */
+  generation: number;
+  facets?: { at: number; value: Promise<Facets> };
+  answers: Map<string, AnswerEntry>;
 }
 
+const caches = new WeakMap<Sequelize, SearchCache>();
+
+/** Answers kept per database: enough for the lookups readers repeat. */
+const MAX_ANSWERS = 1000;
+
+function cacheOf(sequelize: Sequelize): SearchCache {
+  let c = caches.get(sequelize);
+  if (!c) caches.set(sequelize, (c = { generation: 0, answers: new Map() }));
+  return c;
+}
 /** Forgets the cached facets of `sequelize`'s database (after writing the index from outside a transaction). */
 export function searchIndexChanged(sequelize: Sequelize): void {
-  cacheOf(sequelize).generation++;
+  const c = cacheOf(sequelize);
+  c.generation++;
+  c.answers.clear();
 }
 
 function sequelizeOf(transaction: Transaction): Sequelize {
@@ -231,15 +243,40 @@ function filtersOf(q: SearchQuery): Filters {
 
 type OrderKey = [expr: string, dir: 'ASC' | 'DESC'];
 
-function orderOf(sort: SearchSort, ranked: boolean): OrderKey[] {
-  const newest: OrderKey[] = [
-    ['d.published_at', 'DESC'],
-    ['d.document_id', 'DESC'],
-  ];
-  if (sort === 'relevance' && ranked) return [['search_fts.rank', 'ASC'], ...newest];
+const NEWEST: OrderKey[] = [
+  ['d.published_at', 'DESC'],
+  ['d.document_id', 'DESC'],
+];
+
+/**
+ * Relevance: where the words occur. A word in the title counts most, then in the
+ * component, then in the tags; a match anywhere else (pins, notes, write-up text)
+ * counts only by being there. Ties go to the shorter title (the more specific
+ * sheet), then the newest. Cheaper than bm25 over thousands of trigram matches,
+ * and easy to explain to a reader.
+ */
+function relevance(needles: string[]): { keys: OrderKey[]; params: unknown[] } {
+  const parts: string[] = [];
+  const params: unknown[] = [];
+  for (const n of needles) {
+    parts.push(
+      '(instr(d.title_key, ?) > 0) * 8 + (instr(d.component_key, ?) > 0) * 4 + (instr(d.tags_key, ?) > 0) * 3',
+    );
+    params.push(n, n, n);
+  }
+  const score: OrderKey[] = parts.length ? [[parts.join(' + '), 'DESC']] : [];
+  return { keys: [...score, ['d.title_len', 'ASC'], ...NEWEST], params };
+}
+
+function orderOf(sort: SearchSort, plan: TextPlan | null): { keys: OrderKey[]; params: unknown[] } {
+  const needles = needlesOf(plan);
+  if (sort === 'relevance' && needles.length) return relevance(needles);
   if (sort === 'cavities')
-    return [['d.cavity_count IS NULL', 'ASC'], ['d.cavity_count', 'ASC'], ...newest];
-  return newest;
+    return {
+      keys: [['d.cavity_count IS NULL', 'ASC'], ['d.cavity_count', 'ASC'], ...NEWEST],
+      params: [],
+    };
+  return { keys: NEWEST, params: [] };
 }
 
 interface PageRow {
@@ -260,6 +297,87 @@ interface PlanResult {
   rows: PageRow[];
 }
 
+const LIKE = `t.keywords LIKE ? ESCAPE '\\'`;
+
+/**
+ * The full-text match drives every query: CROSS JOIN keeps SQLite from starting at a
+ * filter and re-running the MATCH once per candidate row (seconds instead of
+ * milliseconds for "pump" with a colour filter).
+ */
+const FTS_DRIVEN = 'search_fts CROSS JOIN search_docs d ON d.document_id = search_fts.rowid';
+
+/** A two-letter word that is a wire colour code ("GN") is the colour, not two letters anywhere. */
+function colorCodeOf(word: string): string | null {
+  if (!/^[a-z]{2}$/.test(word)) return null;
+  const parsed = parseWireColor(word);
+  return parsed.ok && !parsed.tracer ? parsed.normalized : null;
+}
+
+interface Statement {
+  sql: string;
+  params: unknown[];
+}
+
+/** The statements of one plan: the page, and the count when the page is full. */
+function planStatements(
+  plan: TextPlan | null,
+  filters: Filters,
+  sort: SearchSort,
+  limit: number,
+  offset: number,
+): { page: Statement; count: Statement } {
+  const where: string[] = [];
+  const params: unknown[] = [];
+  const match = plan ? matchExpression(plan.indexed) : null;
+  const short = plan?.short ?? [];
+  let from = 'search_docs d';
+  if (match) {
+    from = FTS_DRIVEN;
+    where.push('search_fts MATCH ?');
+    params.push(match);
+  }
+  let texts = false;
+  for (const s of short) {
+    const code = colorCodeOf(s);
+    if (code) {
+      where.push(valueFilter);
+      params.push('color', code);
+      continue;
+    }
+    if (!texts) from += ' JOIN search_texts t ON t.document_id = d.document_id';
+    texts = true;
+    where.push(LIKE);
+    params.push(likeContains(s));
+  }
+  where.push(...filters.where);
+  params.push(...filters.params);
+  const whereSql = where.length ? `WHERE ${where.join(' AND ')}` : '';
+  const order = orderOf(sort, plan);
+  const inner = order.keys.map(([e], i) => `${e} AS k${i}`).join(', ');
+  const innerOrder = order.keys.map(([, dir], i) => `k${i} ${dir}`).join(', ');
+  const outerOrder = order.keys.map(([, dir], i) => `p.k${i} ${dir}`).join(', ');
+  return {
+    // Filters, sorts and ranking read only the narrow table; the texts of one page are read last.
+    page: {
+      sql: `SELECT t.document_id AS id, t.slug, d.kind, t.title, t.summary, t.component,
+              t.tags_text, t.pins_text, t.body_text, t.card
+            FROM (SELECT d.document_id AS id, ${inner} FROM ${from} ${whereSql}
+                  ORDER BY ${innerOrder} LIMIT ? OFFSET ?) p
+            JOIN search_texts t ON t.document_id = p.id
+            JOIN search_docs d ON d.document_id = p.id
+            ORDER BY ${outerOrder}`,
+      params: [...order.params, ...params, limit, offset],
+    },
+    count: {
+      sql:
+        match && where.length === 1
+          ? `SELECT count(*) AS n FROM search_fts WHERE search_fts MATCH ?`
+          : `SELECT count(*) AS n FROM ${from} ${whereSql}`,
+      params,
+    },
+  };
+}
+
 async function runPlan(
   sql: SqlRunner,
   plan: TextPlan | null,
@@ -268,41 +386,28 @@ async function runPlan(
   limit: number,
   offset: number,
 ): Promise<PlanResult> {
-  const where: string[] = [];
-  const params: unknown[] = [];
-  const match = plan ? matchExpression(plan.indexed) : null;
-  let from = 'search_docs d';
-  if (match) {
-    from = 'search_fts JOIN search_docs d ON d.document_id = search_fts.rowid';
-    where.push('search_fts MATCH ?');
-    params.push(match);
-  }
-  for (const s of plan?.short ?? []) {
-    where.push(`d.keywords LIKE ? ESCAPE '\\'`);
-    params.push(likeContains(s));
-  }
-  where.push(...filters.where);
-  params.push(...filters.params);
-  const whereSql = where.length ? `WHERE ${where.join(' AND ')}` : '';
-  const order = orderOf(sort, !!match);
-  const inner = order.map(([e], i) => `${e} AS k${i}`).join(', ');
-  const outer = order.map(([, dir], i) => `p.k${i} ${dir}`).join(', ');
-  const rows = await sql.all<PageRow>(
-    `SELECT d.document_id AS id, d.slug, d.kind, d.title, d.summary, d.component, d.tags_text,
-            d.pins_text, d.body_text, d.card
-     FROM (SELECT d.document_id AS id, ${inner} FROM ${from} ${whereSql}
-           ORDER BY ${order.map(([e, dir]) => `${e} ${dir}`).join(', ')} LIMIT ? OFFSET ?) p
-     JOIN search_docs d ON d.document_id = p.id
-     ORDER BY ${outer}`,
-    [...params, limit, offset],
-  );
+  const { page, count } = planStatements(plan, filters, sort, limit, offset);
+  const rows = await sql.all<PageRow>(page.sql, page.params);
   // A first page that is not full holds every match; no need to count them.
   if (offset === 0 && rows.length < limit) return { total: rows.length, rows };
-  const [{ n }] = await sql.all<{ n: number }>(
-    `SELECT count(*) AS n FROM ${from} ${whereSql}`,
-    params,
-  );
+  const [{ n }] = await sql.all<{ n: number }>(count.sql, count.params);
   return { total: Number(n), rows };
+}
+
+/**
+ * The SQL a search runs first (before any fallback), for measuring it on its own:
+ * the benchmark's bare baseline runs exactly these statements.
+ */
+export function searchStatements(query: SearchQuery): { page: Statement; count: Statement } {
+  const terms = query.q ? parseQuery(query.q) : [];
+  const sort: SearchSort = query.sort ?? (terms.length ? 'relevance' : 'newest');
+  return planStatements(
+    terms.length ? mergedPlan(terms) : null,
+    filtersOf(query),
+    sort,
+    query.limit ?? DEFAULT_SEARCH_LIMIT,
+    query.offset ?? 0,
+  );
 }
 
 interface VocabularyRow {
@@ -381,11 +486,60 @@ function itemOf(row: PageRow, needles: string[]): SearchItem {
   };
 }
 
+interface AnswerEntry {
+  at: number;
+  /** Shared by every request that asks while it is being read. */
+  value: Promise<SearchAnswer>;
+  /** The answer serialised, made on first use. */
+  prepared?: Promise<Prepared>;
+}
+
+function cachedAnswer(ctx: AppContext, query: SearchQuery): AnswerEntry {
+  const cache = cacheOf(ctx.sequelize);
+  const key = JSON.stringify(query);
+  const hit = cache.answers.get(key);
+  if (hit && hit.at === cache.generation) return hit;
+  const at = cache.generation;
+  const entry: AnswerEntry = { at, value: runSearch(ctx, query) };
+  cache.answers.delete(key);
+  cache.answers.set(key, entry);
+  if (cache.answers.size > MAX_ANSWERS)
+    cache.answers.delete(cache.answers.keys().next().value as string);
+  // Not kept when it failed, or when the index changed while it was read.
+  entry.value.then(
+    () => {
+      if (at !== cache.generation && cache.answers.get(key) === entry) cache.answers.delete(key);
+    },
+    () => {
+      if (cache.answers.get(key) === entry) cache.answers.delete(key);
+    },
+  );
+  return entry;
+}
+
 /**
  * Searches published documents. `q` is text, never syntax; filters narrow, `sort`
- * orders (relevance needs words; without them the newest come first).
+ * orders (relevance needs words; without them the newest come first). Answers are
+ * kept until the index changes.
  */
 export async function search(ctx: AppContext, query: SearchQuery): Promise<SearchAnswer> {
+  if (!ctx.config.answerCache) return runSearch(ctx, query);
+  return cachedAnswer(ctx, query).value;
+}
+
+/** {@link search}, serialised: a repeated lookup costs neither SQL nor JSON.stringify. */
+export async function searchPrepared(ctx: AppContext, query: SearchQuery): Promise<Prepared> {
+  if (!ctx.config.answerCache) return prepare(await runSearch(ctx, query));
+  const entry = cachedAnswer(ctx, query);
+  return (entry.prepared ??= entry.value.then(prepare));
+}
+
+/** A number that changes whenever a committed change reaches the index (publish, take-down, rebuild). */
+export function indexGeneration(sequelize: Sequelize): number {
+  return cacheOf(sequelize).generation;
+}
+
+async function runSearch(ctx: AppContext, query: SearchQuery): Promise<SearchAnswer> {
   const sql = sequelizeRunner(ctx.sequelize);
   const limit = query.limit ?? DEFAULT_SEARCH_LIMIT;
   const offset = query.offset ?? 0;
@@ -433,8 +587,9 @@ async function readFacets(sequelize: Sequelize): Promise<Facets> {
     `SELECT kind, count(*) AS n FROM search_docs GROUP BY kind ORDER BY kind`,
   );
   const components = await sql.all<{ k: string; name: string; n: number }>(
-    `SELECT component_key AS k, min(component) AS name, count(*) AS n FROM search_docs
-     WHERE component_key <> '' GROUP BY component_key ORDER BY n DESC, k`,
+    `SELECT d.component_key AS k, min(t.component) AS name, count(*) AS n
+     FROM search_docs d JOIN search_texts t ON t.document_id = d.document_id
+     WHERE d.component_key <> '' GROUP BY d.component_key ORDER BY n DESC, k`,
   );
   const tags = await sql.all<{ k: string; name: string; n: number }>(
     `SELECT value AS k, min(label) AS name, count(*) AS n FROM search_values
@@ -512,19 +667,18 @@ export async function suggest(
   const plan = mergedPlan(parseQuery(q ?? ''));
   const where: string[] = [];
   const params: unknown[] = [];
-  let from = 'search_docs d';
-  let order = 'd.published_at DESC';
+  let from = 'search_docs d JOIN search_texts t ON t.document_id = d.document_id';
   const match = matchExpression(plan.indexed, ['title', 'component', 'tags']);
   if (match) {
-    from = 'search_fts JOIN search_docs d ON d.document_id = search_fts.rowid';
+    from = `${FTS_DRIVEN} JOIN search_texts t ON t.document_id = d.document_id`;
     where.push('search_fts MATCH ?');
     params.push(match);
-    order = 'search_fts.rank';
   }
   for (const s of plan.short) {
-    where.push(`d.keywords LIKE ? ESCAPE '\\'`);
+    where.push(LIKE);
     params.push(likeContains(s));
   }
+  const ranked = relevance(needlesOf(plan));
   const docs = where.length
     ? await sql.all<{
         slug: string;
@@ -532,9 +686,12 @@ export async function suggest(
         title: string;
         cavity_count: number | null;
       }>(
-        `SELECT d.slug, d.kind, d.title, d.cavity_count FROM ${from}
-         WHERE ${where.join(' AND ')} ORDER BY ${order} LIMIT ${SUGGEST_DOCUMENTS}`,
-        params,
+        `SELECT t.slug, d.kind, t.title, d.cavity_count FROM ${from}
+         WHERE ${where.join(' AND ')}
+         ORDER BY ${ranked.keys.map(([e, dir]) => `${e} ${dir}`).join(', ')}
+         LIMIT ${SUGGEST_DOCUMENTS}`,
+        // WHERE comes before ORDER BY in the statement, so its values come first.
+        [...params, ...ranked.params],
       )
     : [];
   const facets = await facetsOf(ctx.sequelize);

@@ -100,7 +100,8 @@ export const searchQuerySchema = z
         return z.NEVER;
       }
       return parsed.normalized;
-    }),
+    })
+    .optional(),
     role: words(80),
     tag: words(60),
     sort: choice(SEARCH_SORTS),

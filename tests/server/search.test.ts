@@ -410,7 +410,7 @@ describe('GET /api/search', () => {
     expect(washer.items.map((i) => i.id)).toEqual([doc.id]);
     expect(washer.items[0].cavityCount).toBe(2);
     const rows = await env.ctx.sequelize.query(
-      'SELECT revision_id FROM search_docs WHERE document_id = ?',
+      'SELECT revision_id FROM search_texts WHERE document_id = ?',
       { replacements: [doc.id], type: QueryTypes.SELECT },
     );
     expect(rows).toEqual([{ revision_id: rev.id }]);
@@ -426,7 +426,7 @@ describe('GET /api/search', () => {
     const doc = await draft('connector', 'Orrin horn relay socket', connector({ cavityCount: 4 }));
     const rev = await submit(doc.id);
     const seen: Array<{ sql: string; tx: string | undefined }> = [];
-    const options = env.ctx.sequelize.options as { logging?: unknown };
+    const options = (env.ctx.sequelize as unknown as { options: { logging?: unknown } }).options;
     const before = options.logging;
     options.logging = (sql: string, opts: { transaction?: { id: string } }) =>
       seen.push({ sql, tx: opts?.transaction?.id });
@@ -479,8 +479,12 @@ describe('GET /api/search/suggest', () => {
       text: 'coolant temperature sensor',
       count: 1,
     });
-    const tags = await reader.get('/api/search/suggest?q=harr');
-    expect(tags.body.items).toContainEqual({ type: 'tag', text: 'Brindlemoor 4.2 platform', count: 2 });
+    const tags = await reader.get('/api/search/suggest?q=brin');
+    expect(tags.body.items).toContainEqual({
+      type: 'tag',
+      text: 'Brindlemoor 4.2 platform',
+      count: 2,
+    });
     expect((await reader.get('/api/search/suggest?q=')).body).toEqual({ items: [] });
     expect((await reader.get('/api/search/suggest?q=secret')).body.items).toEqual([]);
     expect((await reader.get('/api/search/suggest?q=pu')).status).toBe(200);
