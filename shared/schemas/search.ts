@@ -89,19 +89,20 @@ export const searchQuerySchema = z
       z.boolean({ error: 'must be "true" or "false"' }).optional(),
     ),
     housing: choice(HOUSINGS),
-    color: words(24).transform((v, ctx) => {
-      if (v === undefined) return undefined;
-      const parsed = parseWireColor(v);
-      if (!parsed.ok) {
-        ctx.addIssue({
-          code: 'custom',
-          message: 'must be a wire colour code such as "GN", "GN/YE" or a name such as "green"',
-        });
-        return z.NEVER;
-      }
-      return parsed.normalized;
-    })
-    .optional(),
+    color: words(24)
+      .transform((v, ctx) => {
+        if (v === undefined) return undefined;
+        const parsed = parseWireColor(v);
+        if (!parsed.ok) {
+          ctx.addIssue({
+            code: 'custom',
+            message: 'must be a wire colour code such as "GN", "GN/YE" or a name such as "green"',
+          });
+          return z.NEVER;
+        }
+        return parsed.normalized;
+      })
+      .optional(),
     role: words(80),
     tag: words(60),
     sort: choice(SEARCH_SORTS),
