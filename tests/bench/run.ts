@@ -8,7 +8,12 @@
  * A part is a name and a function that prints its own figures and says whether it met
  * its target. Add parts (search, HTTP) to PARTS.
  */
+import { execSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
 import { runCheckBench } from './check.bench';
+import { runSearchBench } from './search.bench';
+import { firstLoadReport, printBundle } from './bundle';
 
 export interface BenchPart {
   name: string;
@@ -21,6 +26,26 @@ export const PARTS: BenchPart[] = [
     name: 'check',
     description: 'the pin-to-pin check on 10, 100, 1 000 and 10 000 circuits',
     run: (log) => runCheckBench({ log }),
+  },
+  {
+    name: 'search',
+    description:
+      'search and a connector sheet at 32 connections over 10 000 sheets, beside a bare baseline',
+    run: (log) => runSearchBench(log),
+  },
+  {
+    name: 'bundle',
+    description: "the lookup route's JavaScript before first render, from the production build",
+    run(log) {
+      const root = path.resolve(import.meta.dirname, '..', '..');
+      if (!fs.existsSync(path.join(root, 'dist', 'index.html'))) {
+        log('no dist/ yet: building the client (npx vite build)');
+        execSync('npx vite build --logLevel warn', { cwd: root, stdio: 'inherit' });
+      }
+      const report = firstLoadReport(path.join(root, 'dist'));
+      printBundle(report, log);
+      return { pass: report.pass };
+    },
   },
 ];
 
