@@ -26,7 +26,7 @@ export const uploadUrl = (id: string) => `/api/uploads/${encodeURIComponent(id)}
 export const thumbUrl = (id: string) => `/api/uploads/${encodeURIComponent(id)}/thumb`;
 
 function errorFrom(xhr: XMLHttpRequest): ApiError {
-  let body: { error?: { code?: unknown; message?: unknown } } | null = null;
+  let body: { error?: { code?: unknown; message?: unknown } } | null;
   try {
     body = JSON.parse(xhr.responseText);
   } catch {
