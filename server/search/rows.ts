@@ -254,7 +254,6 @@ export function buildIndexRow(doc: IndexDoc, revision: IndexRevision): IndexRow 
 
   const publishedAt = timeOf(revision.publishedAt);
   const card: SearchCard = {
-    summary,
     cavityCount,
     component,
     tags,

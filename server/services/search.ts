@@ -480,7 +480,6 @@ function itemOf(row: PageRow, needles: string[]): SearchItem {
     kind: row.kind,
     title: row.title,
     snippet: markHtml(snippet.text, snippet.ranges),
-    highlight: snippet,
     titleRanges: findRanges(row.title, needles),
     ...card,
   };

@@ -136,7 +136,6 @@ export interface CompactPinMap {
 
 /** What a result card shows besides the stable fields. */
 export interface SearchCard {
-  summary: string;
   cavityCount: number | null;
   component: string;
   tags: string[];
@@ -152,21 +151,16 @@ export interface SearchCard {
   };
 }
 
-/** A text with the ranges `[start, end)` of the words that matched. */
-export interface Highlighted {
-  text: string;
-  ranges: Array<[start: number, end: number]>;
-}
-
 export interface SearchItem extends SearchCard {
   id: number;
   slug: string;
   kind: DocumentKind;
   title: string;
-  /** The snippet as HTML: every character escaped except our own `<mark>` tags. */
+  /**
+   * The snippet as HTML: every character escaped except our own `<mark>` tags around
+   * the matched words (`snippetParts` in shared/search/snippet.ts shows it without HTML).
+   */
   snippet: string;
-  /** The same snippet as plain text with match ranges, for rendering without HTML. */
-  highlight: Highlighted;
   /** Match ranges inside the title. */
   titleRanges: Array<[start: number, end: number]>;
 }

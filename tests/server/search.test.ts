@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/context';
 import type { SearchAnswer } from '../../shared/schemas/search';
+import { snippetParts } from '../../shared/search/snippet';
 
 let env: TestEnv;
 let author: Client;
@@ -173,8 +174,8 @@ describe('GET /api/search', () => {
     expect(a.items[0].titleRanges.length).toBeGreaterThan(0);
     const b = await search('q=gauge');
     expect(b.items[0].snippet).toContain('<mark>gauge</mark>');
-    const { text, ranges } = b.items[0].highlight;
-    expect(ranges.map(([s, e]) => text.slice(s, e).toLowerCase())).toContain('gauge');
+    const marked = snippetParts(b.items[0].snippet).filter((p) => p.mark);
+    expect(marked.map((p) => p.text.toLowerCase())).toContain('gauge');
   });
 
   it('carries what a result card shows, with a compact pin map', async () => {
@@ -379,6 +380,12 @@ describe('GET /api/search', () => {
     expect(item.snippet).toContain('&lt;script&gt;');
     const tags = item.snippet.match(/<\/?[a-z]+[^>]*>/gi) ?? [];
     expect(tags.every((t) => t === '<mark>' || t === '</mark>')).toBe(true);
+    // Read back as parts, it is the document's text exactly, markup and all, as text.
+    expect(
+      snippetParts(item.snippet)
+        .map((p) => p.text)
+        .join(''),
+    ).toContain('<img src=x onerror=alert(1)> and <script>alert(2)</script>');
     const script = await search('q=alert');
     for (const i of script.items) {
       expect(i.snippet).not.toMatch(/<(script|img|b|i)\b/i);
