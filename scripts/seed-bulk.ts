@@ -11,7 +11,6 @@
  * connection, then indexed for search by the same code the publish path uses.
  */
 import fs from 'node:fs';
-import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import sqlite3 from 'sqlite3';
 import { loadConfig } from '../server/config';

@@ -171,7 +171,7 @@ export function buildIndexRow(doc: IndexDoc, revision: IndexRevision): IndexRow 
   const pinLines: string[] = [];
   const keywordParts: string[] = [];
   const vocabularyParts: string[] = [title, summary];
-  let body = '';
+  let body: string;
 
   if (doc.kind === 'connector') {
     const c = content as ConnectorContent;

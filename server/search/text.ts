@@ -41,7 +41,7 @@ export function fold(s: string): string {
   const lower = n.toLowerCase();
   // Plain ASCII is the common case; otherwise only accented letters need more work,
   // unless lower-casing changed the length (rare: then character by character).
-  if (/^[\x00-\x7f]*$/.test(n)) return lower;
+  if (!/[^\t\n\r -~]/.test(n)) return lower;
   if (lower.length === n.length) return lower.replace(ACCENTED, foldChar);
   let out = '';
   for (let i = 0; i < n.length; i++) out += foldChar(n[i]);
