@@ -66,11 +66,25 @@ export const routes: RouteRecordRaw[] = [
         meta: { title: 'Write-ups' },
       },
       {
+        path: 'adapters/new',
+        name: 'adapter-new',
+        component: () => import('@/pages/documents/DocumentEditPage.vue'),
+        props: { kind: 'adapter' },
+        meta: { verified: true, title: 'New adapter sheet' },
+      },
+      {
         path: 'documents/:id(\\d+)/edit',
         name: 'document-edit',
         component: () => import('@/pages/documents/DocumentEditPage.vue'),
         props: (route) => ({ id: String(route.params.id) }),
         meta: { verified: true, title: 'Edit document' },
+      },
+      {
+        path: 'documents/:slug/build-sheet',
+        name: 'build-sheet',
+        component: () => import('@/pages/adapters/BuildSheetPage.vue'),
+        props: true,
+        meta: { title: 'Build sheet' },
       },
       {
         path: 'documents/:slug',

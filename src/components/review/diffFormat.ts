@@ -1,6 +1,7 @@
 /** Words and values for the revision diff, kept out of the component for testing. */
 import type { RowDiff, RowStatus } from '@shared/diff/revisions';
 import { writeupFieldText } from '@/components/writeup/diffText';
+import { ADAPTER_FIELD_LABELS, adapterFieldText } from '@/components/adapter/diffText';
 
 export const FIELD_LABELS: Record<string, string> = {
   cavities: 'Cavity labels',
@@ -23,6 +24,7 @@ export const FIELD_LABELS: Record<string, string> = {
   wireRun: 'Wire run',
   parts: 'Parts list',
   specs: 'Values',
+  ...ADAPTER_FIELD_LABELS,
 };
 
 export function fieldLabel(field: string): string {
@@ -44,7 +46,7 @@ const WORDS: Record<string, string> = {
 /** A stored value as a reader would write it. */
 export function formatValue(field: string, value: unknown): string {
   if (value === null || value === undefined || value === '') return '(none)';
-  const words = writeupFieldText(field, value);
+  const words = writeupFieldText(field, value) ?? adapterFieldText(field, value);
   if (words !== null) return words;
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value === 'string') return WORDS[value] ?? value;

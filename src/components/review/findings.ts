@@ -34,7 +34,10 @@ export function normaliseFindings(raw: unknown): ShownFinding[] {
   if (Array.isArray(r.warnings))
     out.push(...r.warnings.map((f) => one(f, 'warning')).filter((f): f is ShownFinding => !!f));
   if (Array.isArray(r.findings)) out.push(...normaliseFindings(r.findings));
-  if (r.report) out.push(...normaliseFindings(r.report));
+  // An adapter's findings carry its check report too: read it only when the errors and
+  // warnings are not already listed beside it, so nothing shows twice.
+  if (r.report && !Array.isArray(r.errors) && !Array.isArray(r.warnings))
+    out.push(...normaliseFindings(r.report));
   const order = { error: 0, warning: 1, info: 2 };
   return out.sort((a, b) => order[a.severity] - order[b.severity]);
 }
