@@ -133,7 +133,7 @@ beforeAll(async () => {
   const form = new FormData();
   form.append(
     'file',
-    new Blob([await png()], { type: 'image/png' }),
+    new Blob([new Uint8Array(await png())], { type: 'image/png' }),
     `<img src=x onerror=alert('XSS-file')>.png`,
   );
   const upload = await member.call('POST', '/api/uploads', form);
