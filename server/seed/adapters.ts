@@ -75,7 +75,8 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
       },
     },
     {
-      title: 'Brindlemoor 4.2 fuel pump module into the Brindlemoor 3.6 body harness, 10-way to 6-way',
+      title:
+        'Brindlemoor 4.2 fuel pump module into the Brindlemoor 3.6 body harness, 10-way to 6-way',
       content: {
         systemVoltage: 12,
         ends: {
@@ -161,7 +162,8 @@ async function publishedAdapters(ctx: AppContext): Promise<DemoAdapter[]> {
       },
     },
     {
-      title: 'Brindlemoor 4.2 cooling fan pigtail, feed through a 1-way plug, ground to a ring terminal',
+      title:
+        'Brindlemoor 4.2 cooling fan pigtail, feed through a 1-way plug, ground to a ring terminal',
       content: {
         systemVoltage: 12,
         ends: {
