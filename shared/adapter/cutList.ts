@@ -51,6 +51,7 @@ export interface WireTotal {
 /** What one end of the adapter needs. */
 export interface EndParts {
   side: Side;
+  /** The end's label as given ('' when it has none). */
   label: string;
   sealed: boolean;
   cavities: number;
@@ -225,7 +226,7 @@ export function buildCutList(input: AdapterInput, report?: CheckReport): CutList
     const sealed = end?.sealed === true;
     ends[side] = {
       side,
-      label: text(end?.label) || `End ${side}`,
+      label: text(end?.label),
       sealed,
       cavities: summary.cavities,
       terminals: summary.used,
