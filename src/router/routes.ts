@@ -35,6 +35,17 @@ export const routes: RouteRecordRaw[] = [
         component: () => import('@/pages/SearchPage.vue'),
         meta: { title: 'Search' },
       },
+      // The nav's per-kind entries are searches narrowed to that kind.
+      {
+        path: 'connectors',
+        name: 'connectors',
+        redirect: { name: 'search', query: { kind: 'connector' } },
+      },
+      {
+        path: 'adapters',
+        name: 'adapters',
+        redirect: { name: 'search', query: { kind: 'adapter' } },
+      },
       {
         path: 'browse',
         name: 'browse',
