@@ -7,6 +7,7 @@ import {
   createDocumentSchema,
   revisionQuerySchema,
   saveDraftSchemaFor,
+  submitSchema,
 } from '../../shared/schemas/document';
 import * as documents from '../services/documents';
 import { publishedView } from '../services/publicViews';
@@ -53,7 +54,9 @@ export function documentRoutes(ctx: AppContext) {
   });
 
   r.post('/:id/submit', allow('verified'), async (req, res) => {
-    res.json(await documents.submit(ctx, req.user, numericId(req.params.id)));
+    const id = numericId(req.params.id);
+    const body = parseWith(submitSchema, req.body ?? {});
+    res.json(await documents.submit(ctx, req.user, id, body));
   });
 
   r.post('/:id/withdraw', allow('verified'), async (req, res) => {

@@ -360,8 +360,17 @@ export async function saveDraft(
   }
 }
 
-/** Sends the open revision to review. An adapter whose check has errors is refused (422). */
-export async function submit(ctx: AppContext, user: Viewer, id: number) {
+/**
+ * Sends the open revision to review. An adapter whose check has errors is refused (422).
+ * With `version` (the version the editor last saved) a revision saved elsewhere since is
+ * refused with 409 VERSION_CONFLICT and the stored revision, as a stale draft save is.
+ */
+export async function submit(
+  ctx: AppContext,
+  user: Viewer,
+  id: number,
+  input: { version?: number } = {},
+) {
   const doc = await loadOwned(user, id);
   const open = await openRevision(doc.id);
   if (!open)
@@ -373,6 +382,8 @@ export async function submit(ctx: AppContext, user: Viewer, id: number) {
     throw conflict('ALREADY_SUBMITTED', 'This revision is already waiting for review.', {
       current: revisionJson(await reload(open.id)),
     });
+  if (input.version !== undefined && input.version !== open.version)
+    throw versionConflict(await reload(open.id));
   if (!open.title.trim())
     throw new HttpError(422, 'TITLE_MISSING', 'Give the document a title before you submit it.', {
       field: 'title',

@@ -81,6 +81,12 @@ export function saveDraftSchemaFor(kind: DocumentKind) {
   });
 }
 
+/**
+ * `POST /api/documents/:id/submit`: the version the editor last saved, so a save made
+ * elsewhere since is not submitted unseen. Without it the stored revision is submitted.
+ */
+export const submitSchema = z.strictObject({ version: versionSchema.optional() });
+
 /** The shape of a draft save whatever the kind (content is checked by {@link saveDraftSchemaFor}). */
 export const saveDraftSchema = z.strictObject({
   title: titleSchema,
@@ -139,4 +145,5 @@ export const revisionQuerySchema = z.object({
 
 export type CreateDocumentInput = z.infer<typeof createDocumentSchema>;
 export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
+export type SubmitInput = z.infer<typeof submitSchema>;
 export type DecisionInput = z.infer<typeof publishDecisionSchema>;

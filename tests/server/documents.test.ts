@@ -519,6 +519,115 @@ describe('POST /api/documents/:id/submit and /withdraw', () => {
   });
 });
 
+describe('POST /api/documents/:id/submit {version}', () => {
+  it('submits when the version is the one last saved', async () => {
+    const doc = await createSheet();
+    const saved = await author.put(`/api/documents/${doc.id}/draft`, {
+      title: 'Saved here',
+      content: sensor(),
+      version: 1,
+    });
+    expect(saved.body.revision.version).toBe(2);
+    const sub = await author.post(`/api/documents/${doc.id}/submit`, { version: 2 });
+    expect(sub.status, JSON.stringify(sub.body)).toBe(200);
+    expect(sub.body.revision).toMatchObject({
+      status: 'submitted',
+      version: 2,
+      title: 'Saved here',
+    });
+  });
+
+  it('answers 409 VERSION_CONFLICT with the stored revision when another tab saved since, and submits nothing', async () => {
+    const doc = await createSheet();
+    // This tab's last save made version 2; another tab then saved version 3.
+    await author.put(`/api/documents/${doc.id}/draft`, {
+      title: 'This tab',
+      content: sensor({ component: 'this tab' }),
+      version: 1,
+    });
+    const elsewhere = await author.put(`/api/documents/${doc.id}/draft`, {
+      title: 'Other tab',
+      content: sensor({ component: 'other tab' }),
+      version: 2,
+    });
+    expect(elsewhere.body.revision.version).toBe(3);
+    const sub = await author.post(`/api/documents/${doc.id}/submit`, { version: 2 });
+    expect(sub.status).toBe(409);
+    expect(sub.body.error.code).toBe('VERSION_CONFLICT');
+    expect(sub.body.error.message).toMatch(/Nothing was overwritten/);
+    expect(sub.body.error.details.current).toMatchObject({
+      id: doc.revision.id,
+      documentId: doc.id,
+      status: 'draft',
+      version: 3,
+      title: 'Other tab',
+      content: { component: 'other tab' },
+    });
+    const editor = await author.get(`/api/documents/${doc.id}/editor`);
+    expect(editor.body.revision).toMatchObject({ status: 'draft', version: 3, submittedAt: null });
+    const queue = await moderator.get('/api/review/queue');
+    expect(queue.body.map((i: { documentId: number }) => i.documentId)).not.toContain(doc.id);
+    // Having seen the stored version, the editor submits it.
+    const ok = await author.post(`/api/documents/${doc.id}/submit`, { version: 3 });
+    expect(ok.status).toBe(200);
+    expect(ok.body.revision).toMatchObject({ status: 'submitted', version: 3 });
+  });
+
+  it('answers 409 VERSION_CONFLICT for a version from before a new draft was started', async () => {
+    const doc = await createSheet();
+    await publish(doc.id);
+    const next = await author.put(`/api/documents/${doc.id}/draft`, {
+      title: 'Second revision',
+      content: sensor(),
+      version: 1,
+    });
+    expect(next.body.revision).toMatchObject({ number: 2, version: 2 });
+    const sub = await author.post(`/api/documents/${doc.id}/submit`, { version: 1 });
+    expect(sub.status).toBe(409);
+    expect(sub.body.error.code).toBe('VERSION_CONFLICT');
+    expect(sub.body.error.details.current).toMatchObject({ number: 2, version: 2 });
+  });
+
+  it('submits the stored revision when no version is sent (no body at all, or {})', async () => {
+    const a = await createSheet();
+    const bare = await author.agent
+      .post(`/api/documents/${a.id}/submit`)
+      .set('X-CSRF-Token', author.csrf);
+    expect(bare.status, JSON.stringify(bare.body)).toBe(200);
+    expect(bare.body.revision.status).toBe('submitted');
+    const b = await createSheet();
+    expect((await author.post(`/api/documents/${b.id}/submit`, {})).status).toBe(200);
+  });
+
+  it('answers 400 naming the field for a version that is not a whole number, or an unknown field', async () => {
+    const doc = await createSheet();
+    for (const body of [{ version: '1' }, { version: 1.5 }, { version: -1 }]) {
+      const res = await author.post(`/api/documents/${doc.id}/submit`, body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      expect(res.body.error.code).toBe('VALIDATION');
+      expect(res.body.error.message).toMatch(/version/);
+    }
+    const extra = await author.post(`/api/documents/${doc.id}/submit`, { version: 1, force: true });
+    expect(extra.status).toBe(400);
+    expect(extra.body.error.message).toMatch(/force/);
+    const editor = await author.get(`/api/documents/${doc.id}/editor`);
+    expect(editor.body.revision.status).toBe('draft');
+  });
+
+  it('answers 409 ALREADY_SUBMITTED, not a version conflict, once the revision is in review', async () => {
+    const doc = await createSheet();
+    expect((await author.post(`/api/documents/${doc.id}/submit`, { version: 1 })).status).toBe(200);
+    const again = await author.post(`/api/documents/${doc.id}/submit`, { version: 1 });
+    expect(again.status).toBe(409);
+    expect(again.body.error.code).toBe('ALREADY_SUBMITTED');
+  });
+
+  it('answers 404 to other members whatever the version', async () => {
+    const doc = await createSheet();
+    expect((await other.post(`/api/documents/${doc.id}/submit`, { version: 1 })).status).toBe(404);
+  });
+});
+
 describe('GET /api/documents/:id/revisions', () => {
   it('lists revisions newest first for the author and moderators', async () => {
     const doc = await createSheet();
