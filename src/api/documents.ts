@@ -146,13 +146,19 @@ export async function saveDraft(
   return body.revision;
 }
 
+/**
+ * Sends the open revision to review. `version` is the version the editor last saved:
+ * when the stored revision is newer (saved in another tab) the server answers 409
+ * `VERSION_CONFLICT` and submits nothing.
+ */
 export async function submitDocument(
   id: EntityId,
+  input: { version?: number } = {},
   options?: RequestOptions,
 ): Promise<EditorRevision> {
   const body = await api.post<{ revision: EditorRevision }>(
     `/api/documents/${enc(id)}/submit`,
-    {},
+    input.version === undefined ? {} : { version: input.version },
     options,
   );
   return body.revision;
