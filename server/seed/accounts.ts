@@ -2,7 +2,7 @@ import type { AppContext } from '../context';
 import { hashPassword } from '../auth/passwords';
 import type { Role } from '../models/User';
 
-/** The four accounts the README and API.md name, plus an invented community. */
+/** The four accounts the README names, plus an invented community. */
 export const DEMO_ACCOUNTS: Array<{ email: string; displayName: string; role: Role }> = [
   { email: 'admin@example.test', displayName: 'Ada Quillfeather', role: 'admin' },
   { email: 'moderator@example.test', displayName: 'Moss Tarrow', role: 'moderator' },

@@ -32,7 +32,7 @@ export const OPEN_STATUSES: readonly RevisionStatus[] = ['draft', 'submitted', '
 export const MAX_TITLE = 160;
 export const MAX_NOTE = 4000;
 
-// The pin-to-pin check's input is an adapter sheet's content (API.md).
+// The pin-to-pin check's input is an adapter sheet's content.
 const adapterContentSchema = adapterCheckInputSchema;
 
 const CONTENT_SCHEMAS = {

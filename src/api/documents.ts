@@ -184,7 +184,7 @@ export function listMyDocuments(options?: RequestOptions): Promise<MyDocument[]>
   return api.get<MyDocument[]>('/api/me/documents', options);
 }
 
-/** Words for statuses, the same everywhere (PRODUCT.md's names). */
+/** Words for statuses, the same everywhere (the product's own names). */
 export const STATUS_LABELS: Record<RevisionStatus, string> = {
   draft: 'draft',
   submitted: 'submitted',
