@@ -1,45 +1,39 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
+import { describe, expect, it } from 'vitest';
+import { screenshot, useServerAndBrowser } from '../helpers/browser';
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const run = useServerAndBrowser();
 
 describe('a new member in the browser', () => {
   it('registers, opens the verification link from the mailbox, signs in, sees name and role, signs out', async () => {
-    const page = await browser.newPage();
+    const page = await run.browser.newPage();
     page.setDefaultTimeout(10_000);
     const email = `bench.${Date.now()}@example.test`;
-    await page.goto(`${server.url}/register`);
+    await page.goto(`${run.url}/register`);
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Display name').fill('Bench Tester');
     await page.getByLabel('Password', { exact: true }).fill('ferrule-and-crimp-88');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByText(/check your e-mail/i).first().waitFor();
+    await page
+      .getByText(/check your e-mail/i)
+      .first()
+      .waitFor();
     await screenshot(page, 'accounts-registered');
 
-    await page.goto(`${server.url}/dev/mail`);
+    await page.goto(`${run.url}/dev/mail`);
     await page.getByText('Confirm your e-mail address for Loomwright').first().click();
     const link = page.locator('a[href*="/verify-email?token="]').first();
     await link.waitFor();
     const href = await link.getAttribute('href');
     expect(href).toMatch(/\/verify-email\?token=/);
     await screenshot(page, 'accounts-mailbox');
-    const verifyUrl = new URL(href!, server.url);
-    await page.goto(`${server.url}${verifyUrl.pathname}${verifyUrl.search}`);
-    await page.getByText(/verified|confirmed/i).first().waitFor();
+    const verifyUrl = new URL(href!, run.url);
+    await page.goto(`${run.url}${verifyUrl.pathname}${verifyUrl.search}`);
+    await page
+      .getByText(/verified|confirmed/i)
+      .first()
+      .waitFor();
 
-    await page.goto(`${server.url}/sign-in`);
+    await page.goto(`${run.url}/sign-in`);
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password', { exact: true }).fill('ferrule-and-crimp-88');
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -57,15 +51,18 @@ describe('a new member in the browser', () => {
   }, 90_000);
 
   it('loads the built page without any request leaving this machine', async () => {
-    const page = await browser.newPage();
+    const page = await run.browser.newPage();
     const outside: string[] = [];
     page.on('request', (req) => {
       const url = new URL(req.url());
-      if (!['127.0.0.1', 'localhost'].includes(url.hostname) && !['data:', 'blob:'].includes(url.protocol))
+      if (
+        !['127.0.0.1', 'localhost'].includes(url.hostname) &&
+        !['data:', 'blob:'].includes(url.protocol)
+      )
         outside.push(req.url());
     });
-    await page.goto(`${server.url}/`, { waitUntil: 'networkidle' });
-    await page.goto(`${server.url}/sign-in`, { waitUntil: 'networkidle' });
+    await page.goto(`${run.url}/`, { waitUntil: 'networkidle' });
+    await page.goto(`${run.url}/sign-in`, { waitUntil: 'networkidle' });
     expect(outside).toEqual([]);
     // Fonts come from the app itself.
     const fonts = await page.evaluate(async () => {

@@ -1,56 +1,17 @@
-import path from 'node:path';
-import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { SCREENSHOT_DIR, launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
-import { TEST_PASSWORD } from '../helpers/context';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import {
+  PHONE,
+  elementShot,
+  printedPageCount,
+  screenshot,
+  useServerAndBrowser,
+  waitForSaved,
+} from '../helpers/browser';
 import { DEMO_CONNECTOR_SLUGS } from '../../server/seed/connectors';
 
-let server: RunningServer;
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => {});
-  await browser?.close();
-  await server?.stop();
-});
-
-async function newPage(viewport = { width: 1280, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.setDefaultTimeout(15_000);
-  page.on('pageerror', (err) => console.error('page error:', err.message));
-  return page;
-}
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: /^Account menu for/ }).waitFor();
-}
-
-async function elementShot(page: Page, selector: string, name: string) {
-  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
-  await page
-    .locator(selector)
-    .first()
-    .screenshot({ path: path.join(SCREENSHOT_DIR, `${name}.png`) });
-}
-
-const saved = (page: Page) =>
-  page
-    .locator('[data-test="save-state"]')
-    .filter({ hasText: /^\s*\S*\s*Saved/ })
-    .waitFor();
+const run = useServerAndBrowser();
+const { newPage, signIn } = run;
 
 const cell = (page: Page, row: number, col: number) =>
   page.locator(`input[data-row="${row}"][data-col="${col}"]`);
@@ -151,15 +112,13 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     await diagram.locator('text.lw-adiag__code', { hasText: 'VT/WH' }).waitFor();
     await diagram.locator('text', { hasText: 'Viewed from: wire side' }).first().waitFor();
     await elementShot(member, '[data-test="adapter-diagram"]', 'adapter-editor-diagram');
-    await saved(member);
+    await waitForSaved(member);
     await screenshot(member, 'adapter-editor-clean');
 
     // A phone-width look at an editor with findings: the demo draft with its mistakes.
-    const phone = await newPage({ width: 375, height: 812 });
+    const phone = await newPage({ viewport: PHONE });
     await signIn(phone, 'member@example.test');
-    const mine = (await (
-      await phone.request.get(`${server.url}/api/me/documents`)
-    ).json()) as Array<{
+    const mine = (await (await phone.request.get(`${run.url}/api/me/documents`)).json()) as Array<{
       id: number;
       kind: string;
       title: string;
@@ -167,7 +126,7 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     const demoDraft = mine.find(
       (d) => d.kind === 'adapter' && /throttle body extension/.test(d.title),
     )!;
-    await phone.goto(`${server.url}/documents/${demoDraft.id}/edit`);
+    await phone.goto(`${run.url}/documents/${demoDraft.id}/edit`);
     await phone.locator('[data-test="circuit-table"]').waitFor();
     await phone.locator('[data-code="CAVITY_REUSED"]').first().waitFor();
     await phone.locator('[data-code="OPEN_END"]').first().waitFor();
@@ -194,9 +153,7 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     await sheet.locator('.lw-caution__title', { hasText: 'Disconnect the battery' }).waitFor();
     await screenshot(member, 'adapter-build-sheet');
     for (const format of ['A4', 'Letter'] as const) {
-      const pdf = await member.pdf({ format, printBackground: true });
-      const pages = pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? [];
-      expect(pages.length, `${format} pages`).toBe(1);
+      expect(await printedPageCount(member, format), `${format} pages`).toBe(1);
     }
     await member.emulateMedia({ media: 'print' });
     await expect(member.locator('.q-header').isVisible()).resolves.toBe(false);
@@ -214,7 +171,7 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     // ── The moderator reviews it with the check report and publishes ──
     const moderator = await newPage();
     await signIn(moderator, 'moderator@example.test');
-    await moderator.goto(`${server.url}/review?kind=adapter`);
+    await moderator.goto(`${run.url}/review?kind=adapter`);
     const item = moderator.locator('li.lw-queue__item', { hasText: title });
     await item.getByRole('button', { name: 'Claim and review' }).click();
     await moderator.waitForURL(/\/review\/\d+$/);
@@ -236,11 +193,11 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     await moderator.waitForURL(/\/review(\?.*)?$/);
 
     // ── A signed-out reader opens the published adapter and its diagram ──
-    const api = await (await fetch(`${server.url}/api/documents/${docId}`)).json();
+    const api = await (await fetch(`${run.url}/api/documents/${docId}`)).json();
     expect(api.revision.status).toBe('published');
     expect(api.findings.ok).toBe(true);
     const reader = await newPage();
-    await reader.goto(`${server.url}/documents/${api.slug}`);
+    await reader.goto(`${run.url}/documents/${api.slug}`);
     await reader.getByRole('heading', { name: title }).waitFor();
     await reader.getByText('reviewed by Moss Tarrow', { exact: false }).waitFor();
     await reader.locator('[data-test="verdict"]').getByText('Builds as written').waitFor();
@@ -258,8 +215,8 @@ describe('an adapter sheet from draft to published, in the browser', () => {
     await elementShot(reader, '[data-test="adapter-diagram"]', 'adapter-diagram-desktop');
     await screenshot(reader, 'adapter-sheet-desktop');
 
-    const readerPhone = await newPage({ width: 375, height: 812 });
-    await readerPhone.goto(`${server.url}/documents/${api.slug}`);
+    const readerPhone = await newPage({ viewport: PHONE });
+    await readerPhone.goto(`${run.url}/documents/${api.slug}`);
     await readerPhone.getByRole('heading', { name: title }).waitFor();
     await readerPhone.locator('[data-test="adapter-diagram"]').waitFor();
     await screenshot(readerPhone, 'adapter-sheet-phone');
@@ -269,7 +226,7 @@ describe('an adapter sheet from draft to published, in the browser', () => {
   it('keeps the check fast in a 500-circuit table while typing', async () => {
     const page = await newPage();
     await signIn(page, 'member@example.test');
-    await page.goto(`${server.url}/adapters/new`);
+    await page.goto(`${run.url}/adapters/new`);
     await page.locator('[data-test="circuit-table"]').waitFor();
     for (const side of ['A', 'B'] as const) {
       const panel = page.locator(`[data-test="end-${side}"]`);

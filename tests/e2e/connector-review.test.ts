@@ -1,55 +1,15 @@
-import path from 'node:path';
-import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { SCREENSHOT_DIR, launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
-import { TEST_PASSWORD } from '../helpers/context';
+import { describe, expect, it } from 'vitest';
+import {
+  PHONE,
+  elementShot,
+  printedPageCount,
+  screenshot,
+  useServerAndBrowser,
+  waitForSaved,
+} from '../helpers/browser';
 
-let server: RunningServer;
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => {});
-  await browser?.close();
-  await server?.stop();
-});
-
-async function newPage(viewport = { width: 1280, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.setDefaultTimeout(15_000);
-  page.on('pageerror', (err) => console.error('page error:', err.message));
-  return page;
-}
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: /^Account menu for/ }).waitFor();
-}
-
-async function elementShot(page: Page, selector: string, name: string) {
-  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
-  await page
-    .locator(selector)
-    .first()
-    .screenshot({ path: path.join(SCREENSHOT_DIR, `${name}.png`) });
-}
-
-const saved = (page: Page) =>
-  page
-    .locator('[data-test="save-state"]')
-    .filter({ hasText: /^\s*\S*\s*Saved/ })
-    .waitFor();
+const run = useServerAndBrowser();
+const { newPage, signIn } = run;
 
 /** The six pins typed at the bench: role, colour, size. */
 const PINS: Array<[string, string, string]> = [
@@ -122,7 +82,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
       member.getByText('"BW" is not a known wire colour', { exact: false }).count(),
     ).resolves.toBe(0);
 
-    await saved(member);
+    await waitForSaved(member);
     await screenshot(member, 'connector-editor');
     await member.getByRole('button', { name: 'Submit for review' }).click();
     await member.locator('[data-test="status"][data-status="submitted"]').waitFor();
@@ -158,7 +118,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
     );
 
     // ── The member sees the note, fixes it, resubmits ────────
-    await member.goto(`${server.url}/me/documents`);
+    await member.goto(`${run.url}/me/documents`);
     const mine = member.locator('li.lw-mydoc', { hasText: title });
     await mine.locator('[data-status="returned"]').waitFor();
     await mine.getByText(note).waitFor();
@@ -170,12 +130,12 @@ describe('a connector sheet from draft to published, in the browser', () => {
     await colour5.click();
     await member.keyboard.press('Control+A');
     await member.keyboard.type('WH/BU');
-    await saved(member);
+    await waitForSaved(member);
     await member.getByRole('button', { name: 'Resubmit for review' }).click();
     await member.locator('[data-test="status"][data-status="submitted"]').waitFor();
 
     // ── The moderator publishes ──────────────────────────────
-    await moderator.goto(`${server.url}/review`);
+    await moderator.goto(`${run.url}/review`);
     await moderator
       .locator('li.lw-queue__item', { hasText: title })
       .getByRole('button', { name: 'Claim and review' })
@@ -191,12 +151,12 @@ describe('a connector sheet from draft to published, in the browser', () => {
     await moderator.waitForURL(/\/review(\?.*)?$/);
 
     // ── A signed-out reader opens the sheet and mirrors it ───
-    const api = await (await fetch(`${server.url}/api/documents/${docId}`)).json();
+    const api = await (await fetch(`${run.url}/api/documents/${docId}`)).json();
     expect(api.revision.status).toBe('published');
     const slug: string = api.slug;
 
     const reader = await newPage();
-    await reader.goto(`${server.url}/documents/${slug}`);
+    await reader.goto(`${run.url}/documents/${slug}`);
     await reader.getByRole('heading', { name: title }).waitFor();
     await reader.getByText('reviewed by Moss Tarrow', { exact: false }).waitFor();
     const svgText = reader.locator('svg.lw-pinmap__svg text.lw-pinmap__viewtext');
@@ -228,9 +188,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
     // The print layout fits one A4 and one Letter page, without the navigation.
     await reader.keyboard.press('Escape');
     for (const format of ['A4', 'Letter'] as const) {
-      const pdf = await reader.pdf({ format, printBackground: true });
-      const pages = pdf.toString('latin1').match(/\/Type\s*\/Page(?!s)/g) ?? [];
-      expect(pages.length, `${format} pages`).toBe(1);
+      expect(await printedPageCount(reader, format), `${format} pages`).toBe(1);
     }
     await reader.emulateMedia({ media: 'print' });
     await expect(reader.locator('.q-header').isVisible()).resolves.toBe(false);
@@ -238,8 +196,8 @@ describe('a connector sheet from draft to published, in the browser', () => {
     await reader.emulateMedia({ media: 'screen' });
 
     // A phone-sized screen.
-    const phone = await newPage({ width: 375, height: 812 });
-    await phone.goto(`${server.url}/documents/${slug}`);
+    const phone = await newPage({ viewport: PHONE });
+    await phone.goto(`${run.url}/documents/${slug}`);
     await phone.getByRole('heading', { name: title }).waitFor();
     const svgBox = await phone.locator('svg.lw-pinmap__svg').boundingBox();
     expect(svgBox!.width).toBeLessThanOrEqual(375);
@@ -273,7 +231,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
       await fetch(`/api/documents/${doc.id}/submit`, { method: 'POST', headers });
       return doc;
     });
-    await page.goto(`${server.url}/review/${created.revision.id}`);
+    await page.goto(`${run.url}/review/${created.revision.id}`);
     await page.locator('[data-test="own-submission"]').waitFor();
     await page.locator('[data-test="cannot-decide"]').waitFor();
     await expect(page.getByRole('button', { name: 'Publish' }).count()).resolves.toBe(0);
@@ -302,7 +260,7 @@ describe('a connector sheet from draft to published, in the browser', () => {
       });
       return res.json();
     });
-    const edit = `${server.url}/documents/${doc.id}/edit`;
+    const edit = `${run.url}/documents/${doc.id}/edit`;
     await first.goto(edit);
     const second = await first.context().newPage();
     second.setDefaultTimeout(15_000);
@@ -310,14 +268,14 @@ describe('a connector sheet from draft to published, in the browser', () => {
     await second.getByLabel('Circuit role, row 1, cavity 1').waitFor();
 
     await first.getByLabel('Circuit role, row 1, cavity 1').fill('battery feed');
-    await saved(first);
+    await waitForSaved(first);
     await second.getByLabel('Circuit role, row 2, cavity 2').fill('ground');
     const dialog = second.getByRole('alertdialog');
     await dialog.getByText('This draft was changed somewhere else').waitFor();
     await dialog.getByText('battery feed').first().waitFor(); // the stored version's row, in the comparison
     await screenshot(second, 'connector-conflict');
     await dialog.getByRole('button', { name: 'Keep my version' }).click();
-    await saved(second);
+    await waitForSaved(second);
 
     const stored = await second.evaluate(
       async (id) =>

@@ -1,20 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import path from 'node:path';
-import { SCREENSHOT_DIR, launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshot, useServerAndBrowser } from '../helpers/browser';
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const run = useServerAndBrowser();
 
 const COOLANT = 'Quorvane T3 coolant temperature sensor, 3-cavity';
 
@@ -24,9 +12,7 @@ async function resultTitles(page: Page): Promise<string[]> {
 }
 
 /** What the reader sees without scrolling (the full-page shots of a phone are hard to read). */
-async function viewportShot(page: Page, name: string) {
-  await page.screenshot({ path: path.join(SCREENSHOT_DIR, `${name}.png`) });
-}
+const viewportShot = (page: Page, name: string) => screenshot(page, name, { fullPage: false });
 
 /** Waits until the results show exactly what the URL asks for (no stale list). */
 async function settled(page: Page) {
@@ -40,13 +26,12 @@ describe('a reader looking up a connector', () => {
     { name: 'phone', width: 375, height: 740 },
   ]) {
     it(`types part of a name, narrows by cavity count, opens the sheet and comes back (${viewport.name})`, async () => {
-      const page = await browser.newPage({
+      const page = await run.newPage({
         viewport: { width: viewport.width, height: viewport.height },
       });
-      page.setDefaultTimeout(15_000);
       const errors: string[] = [];
       page.on('pageerror', (e) => errors.push(String(e)));
-      await page.goto(server.url);
+      await page.goto(run.url);
       await page.locator('[data-test="results"]').waitFor();
       await screenshot(page, `lookup-${viewport.name}-home`);
       await viewportShot(page, `lookup-${viewport.name}-home-top`);
@@ -101,25 +86,25 @@ describe('a reader looking up a connector', () => {
   }
 
   it('opens a sheet straight from a suggestion', async () => {
-    const page = await browser.newPage({ viewport: { width: 375, height: 740 } });
-    page.setDefaultTimeout(15_000);
-    await page.goto(server.url);
+    const page = await run.newPage({ viewport: { width: 375, height: 740 } });
+    await page.goto(run.url);
     const box = page.getByRole('combobox', { name: /^Search connector sheets/ });
     await box.click();
     await box.pressSequentially('pedal', { delay: 40 });
     await page.getByRole('option', { name: /accelerator pedal position sensor, 6-cavity/ }).click();
-    await page.waitForURL(/\/documents\/brindlemoor-4-2-accelerator-pedal-position-sensor-6-cavity/);
+    await page.waitForURL(
+      /\/documents\/brindlemoor-4-2-accelerator-pedal-position-sensor-6-cavity/,
+    );
     await page.close();
   }, 60_000);
 
   it('explains an empty result and offers what to try; a typo still finds the sheet', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 860 } });
-    page.setDefaultTimeout(15_000);
-    await page.goto(`${server.url}/search?q=coolnat`);
+    const page = await run.newPage({ viewport: { width: 1280, height: 860 } });
+    await page.goto(`${run.url}/search?q=coolnat`);
     await settled(page);
     await page.getByText(/showing results for/i).waitFor();
     expect(await resultTitles(page)).toContain(COOLANT);
-    await page.goto(`${server.url}/search?q=zeppelin&cavities=3`);
+    await page.goto(`${run.url}/search?q=zeppelin&cavities=3`);
     await page.locator('[data-test="no-results"]').waitFor();
     await expect(page.getByText('clear the filters').isVisible()).resolves.toBe(true);
     await expect(page.getByRole('link', { name: 'Sign in' }).last().isVisible()).resolves.toBe(
@@ -130,14 +115,13 @@ describe('a reader looking up a connector', () => {
   }, 60_000);
 
   it('browses by component and by cavity count', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 860 } });
-    page.setDefaultTimeout(15_000);
-    await page.goto(`${server.url}/browse`);
+    const page = await run.newPage({ viewport: { width: 1280, height: 860 } });
+    await page.goto(`${run.url}/browse`);
     await page.getByRole('link', { name: 'fuel pump module', exact: true }).click();
     await page.waitForURL(/component=fuel/);
     await settled(page);
     expect(await resultTitles(page)).toEqual(['Brindlemoor 4.2 fuel pump module plug, 10-cavity']);
-    await page.goto(`${server.url}/browse`);
+    await page.goto(`${run.url}/browse`);
     await screenshot(page, 'lookup-desktop-browse');
     await page.locator('a[href*="cavities=12"]').first().click();
     await settled(page);

@@ -1,49 +1,24 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
-import { TEST_PASSWORD } from '../helpers/context';
+import { describe, expect, it } from 'vitest';
+import { screenshot, useServerAndBrowser } from '../helpers/browser';
 import { DEMO_CONNECTOR_SLUGS } from '../../server/seed/connectors';
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const run = useServerAndBrowser();
 
 const A = { email: 'member@example.test', name: 'Rook Vantler' };
 const B = { email: 'member2@example.test', name: 'Juniper Okonye' };
 const SLUG = DEMO_CONNECTOR_SLUGS.coolingFan;
 
-async function signIn(email: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-  const page = await context.newPage();
-  page.setDefaultTimeout(15_000);
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: /Account menu for/ }).waitFor();
-  return page;
-}
-
 /** Mail the local fake caught for `to` about replies (the API flushes the outbox first). */
 async function replyMailFor(to: string) {
-  const res = await fetch(`${server.url}/api/dev/mail`);
+  const res = await fetch(`${run.url}/api/dev/mail`);
   const all = (await res.json()) as Array<{ to: string; subject: string; text: string }>;
   return all.filter((m) => m.to.includes(to) && / replied: /.test(m.subject));
 }
 
 describe('replies in the browser', () => {
   it('A asks, B answers, A follows the e-mail to the reply, marks it, unsubscribes; B replies again and A gets nothing', async () => {
-    const a = await signIn(A.email);
-    await a.goto(`${server.url}/documents/${SLUG}`);
+    const a = await run.signedInPage(A.email);
+    await a.goto(`${run.url}/documents/${SLUG}`);
     await a.getByRole('heading', { name: 'Questions and replies' }).waitFor();
     await a.getByRole('button', { name: 'Following replies' }).waitFor();
     const question =
@@ -57,8 +32,8 @@ describe('replies in the browser', () => {
     await asked.waitFor();
     await screenshot(a, 'replies-1-question');
 
-    const b = await signIn(B.email);
-    await b.goto(`${server.url}/documents/${SLUG}`);
+    const b = await run.signedInPage(B.email);
+    await b.goto(`${run.url}/documents/${SLUG}`);
     const theirs = b.locator('article.lw-reply', {
       hasText: 'Has anyone measured the fan current',
     });
@@ -81,7 +56,7 @@ describe('replies in the browser', () => {
     expect(mails[0].subject).toContain(B.name);
     expect(mails[0].text).toContain('About 28 A at full speed');
 
-    await a.goto(`${server.url}/dev/mail`);
+    await a.goto(`${run.url}/dev/mail`);
     await a.getByText(`${B.name} replied:`).first().click();
     const link = a.locator('.lw-mailbox__text a[href*="#reply-"]').first();
     await link.waitFor();
@@ -112,7 +87,7 @@ describe('replies in the browser', () => {
     await screenshot(a, 'replies-5-answer-marked');
 
     // The unsubscribe link in the same e-mail, without needing the session.
-    await a.goto(`${server.url}/dev/mail`);
+    await a.goto(`${run.url}/dev/mail`);
     await a.getByText(`${B.name} replied:`).first().click();
     const stop = a.locator('.lw-mailbox__text a[href*="/unsubscribe?token="]').first();
     await stop.waitFor();
@@ -133,7 +108,7 @@ describe('replies in the browser', () => {
     expect(await replyMailFor(A.email)).toHaveLength(1);
 
     // The bell still tells A in the app.
-    await a.goto(`${server.url}/documents/${SLUG}`);
+    await a.goto(`${run.url}/documents/${SLUG}`);
     await a.getByRole('button', { name: /Notifications, \d+ unread/ }).click();
     await a.getByText(`${B.name} replied:`).first().waitFor();
     await screenshot(a, 'replies-8-bell');
@@ -147,8 +122,8 @@ describe('replies in the browser', () => {
 
   it('a flag reaches the moderators, who hide the reply; members choose their e-mail; admins see the outbox', async () => {
     const coolant = DEMO_CONNECTOR_SLUGS.coolantSensor;
-    const b = await signIn(B.email);
-    await b.goto(`${server.url}/documents/${coolant}`);
+    const b = await run.signedInPage(B.email);
+    await b.goto(`${run.url}/documents/${coolant}`);
     const target = b.locator('article.lw-reply', {
       hasText: 'Thank you for printing the view side',
     });
@@ -159,8 +134,8 @@ describe('replies in the browser', () => {
     await b.getByRole('button', { name: 'Send the flag' }).click();
     await b.getByText('The flag is in the moderators’ queue').waitFor();
 
-    const mod = await signIn('moderator@example.test');
-    await mod.goto(`${server.url}/review/flags`);
+    const mod = await run.signedInPage('moderator@example.test');
+    await mod.goto(`${run.url}/review/flags`);
     const item = mod.locator('li.lw-flag', { hasText: 'Looks like an advert to me.' });
     await item.waitFor();
     await screenshot(mod, 'replies-flag-queue');
@@ -171,32 +146,32 @@ describe('replies in the browser', () => {
     await mod.getByRole('button', { name: 'Reply hidden' }).click();
     await mod.getByText('No open flags').waitFor();
 
-    await mod.goto(`${server.url}/documents/${coolant}`);
+    await mod.goto(`${run.url}/documents/${coolant}`);
     const modView = mod.locator('article.lw-reply', { hasText: 'hidden by a moderator' });
     await modView.getByText('Thank you for printing the view side').waitFor();
     await modView.getByRole('button', { name: 'Show again' }).waitFor();
     await screenshot(mod, 'replies-moderator-hidden');
 
-    const reader = await browser.newPage();
-    await reader.goto(`${server.url}/documents/${coolant}`);
+    const reader = await run.browser.newPage();
+    await reader.goto(`${run.url}/documents/${coolant}`);
     await reader.getByText('hidden by a moderator').waitFor();
     expect(await reader.getByText('Thank you for printing the view side').count()).toBe(0);
     await reader.getByText('Sign in').last().waitFor();
     await screenshot(reader, 'replies-reader');
     await reader.setViewportSize({ width: 390, height: 844 });
-    await reader.goto(`${server.url}/documents/${coolant}#reply-1`);
+    await reader.goto(`${run.url}/documents/${coolant}#reply-1`);
     await reader.locator('#reply-1.lw-reply--highlight').waitFor();
     await screenshot(reader, 'replies-reader-phone');
     await reader.close();
 
-    const a = await signIn(A.email);
-    await a.goto(`${server.url}/account/notifications`);
+    const a = await run.signedInPage(A.email);
+    await a.goto(`${run.url}/account/notifications`);
     await a.getByRole('radio', { name: /daily digest/ }).click();
     await a.getByText('Saved.').waitFor();
     await screenshot(a, 'replies-settings');
 
-    const admin = await signIn('admin@example.test');
-    await admin.goto(`${server.url}/admin/mail?status=sent`);
+    const admin = await run.signedInPage('admin@example.test');
+    await admin.goto(`${run.url}/admin/mail?status=sent`);
     await admin.locator('td', { hasText: 'replied:' }).first().waitFor();
     await screenshot(admin, 'replies-admin-mail');
 

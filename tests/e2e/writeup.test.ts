@@ -1,54 +1,17 @@
-import fs from 'node:fs';
-import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { Jimp } from 'jimp';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { SCREENSHOT_DIR, launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
-import { TEST_PASSWORD } from '../helpers/context';
+import type { Page } from 'playwright-core';
+import {
+  PHONE,
+  elementShot,
+  screenshot,
+  useServerAndBrowser,
+  waitForSaved,
+} from '../helpers/browser';
 import { XSS_PAYLOADS } from '../helpers/xssPayloads';
 
-let server: RunningServer;
-let browser: Browser;
-const contexts: BrowserContext[] = [];
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => {});
-  await browser?.close();
-  await server?.stop();
-});
-
-async function newPage(viewport = { width: 1280, height: 900 }, hasTouch = false): Promise<Page> {
-  const context = await browser.newContext({ viewport, hasTouch, isMobile: hasTouch });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.setDefaultTimeout(20_000);
-  page.on('pageerror', (err) => console.error('page error:', err.message));
-  return page;
-}
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: /^Account menu for/ }).waitFor();
-}
-
-async function elementShot(page: Page, selector: string, name: string) {
-  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
-  await page
-    .locator(selector)
-    .first()
-    .screenshot({ path: path.join(SCREENSHOT_DIR, `${name}.png`) });
-}
-
-const saved = (page: Page) =>
-  page.locator('[data-test="save-state"]').filter({ hasText: /Saved/ }).waitFor();
+const run = useServerAndBrowser({ timeout: 20_000 });
+const { newPage, signIn } = run;
 
 /** A photo-like test image drawn with jimp: a gradient with a dark block in it. */
 async function photo(kind: 'image/png' | 'image/jpeg', width: number, height: number, hue: number) {
@@ -211,7 +174,7 @@ describe('a write-up with annotated photos, from draft to published, in the brow
       .first()
       .waitFor();
 
-    await saved(member);
+    await waitForSaved(member);
     await imagesLoaded(member);
     await screenshot(member, 'writeup-editor-desktop');
     await member.getByRole('button', { name: 'Submit for review' }).click();
@@ -234,7 +197,7 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     // ── The moderator sees the markings and publishes ────────
     const moderator = await newPage();
     await signIn(moderator, 'moderator@example.test');
-    await moderator.goto(`${server.url}/review?kind=writeup`);
+    await moderator.goto(`${run.url}/review?kind=writeup`);
     await moderator
       .locator('li.lw-queue__item', { hasText: title })
       .getByRole('button', { name: 'Claim and review' })
@@ -256,10 +219,10 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     await moderator.waitForURL(/\/review(\?.*)?$/);
 
     // ── A reader reads it with markings on and off ───────────
-    const api = await (await fetch(`${server.url}/api/documents/${docId}`)).json();
+    const api = await (await fetch(`${run.url}/api/documents/${docId}`)).json();
     expect(api.revision.status).toBe('published');
     const reader = await newPage();
-    await reader.goto(`${server.url}/documents/${api.slug}`);
+    await reader.goto(`${run.url}/documents/${api.slug}`);
     await reader.getByRole('heading', { name: title }).waitFor();
     const fig1 = 'figure[data-image="1"]';
     await reader.locator(`${fig1} svg.lw-annot`).waitFor();
@@ -299,8 +262,8 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     await reader.locator('[data-test="wire-run"]').getByText('11.8 in').first().waitFor();
 
     // A phone-sized screen.
-    const phone = await newPage({ width: 375, height: 812 });
-    await phone.goto(`${server.url}/documents/${api.slug}`);
+    const phone = await newPage({ viewport: PHONE });
+    await phone.goto(`${run.url}/documents/${api.slug}`);
     await phone.getByRole('heading', { name: title }).waitFor();
     await phone.locator(`${fig1} svg.lw-annot`).waitFor();
     const width = await phone.evaluate(() => document.documentElement.scrollWidth);
@@ -311,9 +274,9 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     await elementShot(phone, fig1, 'writeup-figure-phone-markings-off');
 
     // On a touch screen: a tap places a marker on the second photo (this starts a new draft).
-    const phoneEditor = await newPage({ width: 375, height: 812 }, true);
+    const phoneEditor = await newPage({ viewport: PHONE, touch: true });
     await signIn(phoneEditor, 'member@example.test');
-    await phoneEditor.goto(`${server.url}/documents/${docId}/edit`);
+    await phoneEditor.goto(`${run.url}/documents/${docId}/edit`);
     await phoneEditor.locator('[data-test="body"]').waitFor();
     await screenshot(phoneEditor, 'writeup-editor-phone');
     await phoneEditor.locator('[data-test="annotate-2"]').tap();
@@ -330,12 +293,12 @@ describe('a write-up with annotated photos, from draft to published, in the brow
 
   it('shows the demo write-ups with their drawn images, wire run and parts options', async () => {
     const page = await newPage();
-    const list = await (await fetch(`${server.url}/api/writeups`)).json();
+    const list = await (await fetch(`${run.url}/api/writeups`)).json();
     const parts = list.items.find((i: { hasParts: boolean }) => i.hasParts);
     expect(
       list.items.filter((i: { images: number }) => i.images >= 2).length,
     ).toBeGreaterThanOrEqual(3);
-    await page.goto(`${server.url}/documents/${parts.slug}`);
+    await page.goto(`${run.url}/documents/${parts.slug}`);
     await page.locator('[data-test="parts-list"]').waitFor();
     await page.getByText("Prices are the author's estimate", { exact: false }).first().waitFor();
     await expect(page.locator('[data-test="parts-list"] [data-diff]').count()).resolves.toBe(3);
@@ -343,8 +306,8 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     await page.locator('.lw-sheetcard').first().waitFor();
     await imagesLoaded(page);
     await screenshot(page, 'writeup-demo-parts-desktop');
-    const phone = await newPage({ width: 375, height: 812 });
-    await phone.goto(`${server.url}/documents/${parts.slug}`);
+    const phone = await newPage({ viewport: PHONE });
+    await phone.goto(`${run.url}/documents/${parts.slug}`);
     await phone.locator('[data-test="parts-list"]').waitFor();
     expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(
       375,
@@ -381,10 +344,10 @@ describe('a write-up with annotated photos, from draft to published, in the brow
     }, payloads.join('\n\n'));
     expect(created.id).toBeTruthy();
 
-    await page.goto(`${server.url}/documents/${created.id}/edit`);
+    await page.goto(`${run.url}/documents/${created.id}/edit`);
     await page.locator('[data-test="preview"] .lw-wbody').waitFor();
     await page.waitForTimeout(1000);
-    await page.goto(`${server.url}/documents/${created.slug}?revision=1`);
+    await page.goto(`${run.url}/documents/${created.slug}?revision=1`);
     await page.locator('[data-test="writeup"] .lw-wbody').waitFor();
     await page.waitForTimeout(1000);
     await screenshot(page, 'writeup-xss-page');

@@ -1,8 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { Jimp } from 'jimp';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshot } from '../helpers/browser';
-import { startServer, type RunningServer } from '../helpers/server';
+import type { Page } from 'playwright-core';
+import { screenshot, useServerAndBrowser } from '../helpers/browser';
 import { Session } from '../helpers/crash';
 
 /**
@@ -51,8 +50,7 @@ const fit = (i: number, max = 150) => {
 };
 const short = (i: number) => fit(i, 150);
 
-let server: RunningServer;
-let browser: Browser;
+const run = useServerAndBrowser();
 const pagesToOpen: string[] = [];
 
 async function png(): Promise<Buffer> {
@@ -61,11 +59,9 @@ async function png(): Promise<Buffer> {
 }
 
 beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  const member = new Session(server.url);
+  const member = new Session(run.url);
   await member.signIn('member@example.test');
-  const moderator = new Session(server.url);
+  const moderator = new Session(run.url);
   await moderator.signIn('moderator@example.test');
 
   // A display name that is itself a payload.
@@ -179,13 +175,8 @@ beforeAll(async () => {
   );
 }, 240_000);
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
 async function visit(page: Page, path: string, events: string[]) {
-  await page.goto(`${server.url}${path}`, { waitUntil: 'networkidle' });
+  await page.goto(`${run.url}${path}`, { waitUntil: 'networkidle' });
   await page.waitForTimeout(300);
   // Nothing a payload could have injected may be live in the page.
   const live = await page.evaluate(() => {
@@ -211,7 +202,7 @@ describe('hostile text in every field a person can type', () => {
   it('runs no script on any page that shows it, for a reader, the author, a moderator and an admin', async () => {
     const events: string[] = [];
     for (const who of ['reader', 'member', 'moderator', 'admin'] as const) {
-      const context = await browser.newContext();
+      const context = await run.browser.newContext();
       const page = await context.newPage();
       page.on('dialog', (d) => {
         events.push(`${who}: dialog "${d.message()}" on ${page.url()}`);
@@ -225,7 +216,7 @@ describe('hostile text in every field a person can type', () => {
           events.push(`${who}: console ${m.text()}`);
       });
       if (who !== 'reader') {
-        await page.goto(`${server.url}/sign-in`);
+        await page.goto(`${run.url}/sign-in`);
         await page
           .getByLabel('E-mail')
           .waitFor({ timeout: 15_000 })
