@@ -77,6 +77,8 @@ export class OutboxWorker {
 
   /** Sends every message that is due now; resolves with how many were sent. */
   flush(): Promise<number> {
+    // Once stopped (shutting down) nothing new starts: the database is about to close.
+    if (this.stopped) return this.running ?? Promise.resolve(0);
     if (!this.running) {
       this.running = this.deliverDue().finally(() => {
         this.running = null;
@@ -131,7 +133,12 @@ export class OutboxWorker {
             },
             { where: { id: msg.id } },
           );
-          const log = { messageId: msg.messageId, to: msg.toAddress, attempts, err: (err as Error).message };
+          const log = {
+            messageId: msg.messageId,
+            to: msg.toAddress,
+            attempts,
+            err: (err as Error).message,
+          };
           if (failed) this.opts.logger.error(log, 'e-mail delivery failed for good');
           else this.opts.logger.warn(log, 'e-mail delivery failed; will retry');
         }

@@ -21,6 +21,36 @@ export interface RunningServer {
 export async function startServer(
   opts: { env?: Record<string, string>; dataDir?: string; seedDemo?: boolean } = {},
 ): Promise<RunningServer> {
+  return launch(opts, 'inherit');
+}
+
+/** A server whose stdout and stderr are kept (see {@link startServerWithOutput}). */
+export interface RunningServerWithOutput extends RunningServer {
+  /** Everything the server wrote to stdout and stderr so far. */
+  output(): string;
+}
+
+/**
+ * {@link startServer}, but the child's stdout and stderr are collected instead of shown,
+ * for tests that read what the server logged (set LOG_LEVEL in `env` to see more).
+ */
+export async function startServerWithOutput(
+  opts: { env?: Record<string, string>; dataDir?: string; seedDemo?: boolean } = {},
+): Promise<RunningServerWithOutput> {
+  let text = '';
+  try {
+    const server = await launch(opts, 'pipe', (chunk) => (text += chunk));
+    return { ...server, output: () => text };
+  } catch (err) {
+    throw new Error(`${(err as Error).message}; its output:\n${text.slice(-4000)}`, { cause: err });
+  }
+}
+
+async function launch(
+  opts: { env?: Record<string, string>; dataDir?: string; seedDemo?: boolean },
+  stdio: 'inherit' | 'pipe',
+  onOutput?: (chunk: string) => void,
+): Promise<RunningServer> {
   const dataDir = opts.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'lw-srv-'));
   const child = fork(path.join(root, 'server', 'index.ts'), [], {
     cwd: root,
@@ -38,8 +68,12 @@ export async function startServer(
       PASSWORD_HASH_N: '1024',
       ...opts.env,
     },
-    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+    stdio: ['ignore', stdio, stdio, 'ipc'],
   });
+  for (const stream of [child.stdout, child.stderr]) {
+    stream?.setEncoding('utf8');
+    stream?.on('data', (chunk: string) => onOutput?.(chunk));
+  }
   const port = await new Promise<number>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error('server did not start within 60 s')), 60_000);
     child.on('message', (m: { ready?: boolean; port?: number }) => {
