@@ -83,12 +83,18 @@ export interface CreatedDocument {
   revision: RevisionRef;
 }
 
+/** One line of a document's history (`GET /api/documents/:id/revisions`), newest first. */
 export interface RevisionSummary extends RevisionRef {
   title: string;
+  /** The moderator's note on the decision, if any. */
   note: string | null;
+  /** Who decided it (null while undecided). */
   reviewer: PersonRef | null;
   submittedAt: string | null;
   decidedAt: string | null;
+  publishedAt?: string | null;
+  /** Last saved. */
+  updatedAt?: string;
 }
 
 export interface MyDocument {
@@ -176,6 +182,7 @@ export async function withdrawDocument(
   return body.revision;
 }
 
+/** Every revision of a document, newest first: for its author and moderators. */
 export function listRevisions(id: EntityId, options?: RequestOptions): Promise<RevisionSummary[]> {
   return api.get<RevisionSummary[]>(`/api/documents/${enc(id)}/revisions`, options);
 }
