@@ -15,6 +15,7 @@ import {
   type CautionKind,
 } from '../../shared/connector/findings';
 import { connectorCavityLabels } from '../../shared/connector/layout';
+import { outlineBody } from '../../shared/writeup/markdown';
 import type { CheckReport } from '../../shared/check';
 import { checkAdapterContent, type LinkedSheet } from './adapters';
 import { writeupCautionsNeeded, writeupServerFindings, writeupSummary } from './writeups';
@@ -159,6 +160,16 @@ export async function submitGate(
   kind: DocumentKind,
   content: Content,
 ): Promise<void> {
+  if (kind === 'writeup') {
+    const problem = outlineBody(typeof content.body === 'string' ? content.body : '').problem;
+    if (problem)
+      throw new HttpError(
+        422,
+        'BODY_TOO_COMPLEX',
+        `This write-up cannot be shown as it is. ${problem}`,
+      );
+    return;
+  }
   if (kind !== 'adapter') return;
   const findings = await findingsFor(ctx, kind, content);
   const report = findings.report ?? (findings as unknown as CheckReport);

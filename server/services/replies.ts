@@ -15,6 +15,7 @@ import { Document, NotificationSetting, Reply, Revision, User } from '../models'
 import { serverMarkdown } from '../markdown';
 import { mailSafeHtml, replyMail } from '../mail/replyMail';
 import { REPLY_EDIT_MINUTES } from '../../shared/schemas/replies';
+import { REPLY_MARKDOWN_BUDGET } from '../../shared/markdown/budget';
 import { isModerator, userRef } from './documents';
 import { audit } from './audit';
 import { enqueueMail } from './outbox';
@@ -32,10 +33,18 @@ export const REPLY_LIMITS = { perMinute: 5, perDay: 60 };
 
 let renderer: ReturnType<typeof serverMarkdown> | undefined;
 
-/** Renders a reply's Markdown to sanitised HTML, with the same rules as the client's preview. */
+/**
+ * Renders a reply's Markdown to sanitised HTML, with the same rules and budget as the
+ * client's preview; text past the budget is a 400 with the renderer's sentence.
+ */
 export function renderReply(source: string): string {
-  renderer ??= serverMarkdown();
-  return renderer.render(source);
+  renderer ??= serverMarkdown({ budget: REPLY_MARKDOWN_BUDGET });
+  try {
+    return renderer.render(source);
+  } catch (err) {
+    if (err instanceof RangeError) throw new HttpError(400, 'REPLY_TOO_COMPLEX', err.message);
+    throw err;
+  }
 }
 
 const limiters = new WeakMap<AppContext, { minute: RateLimiterMemory; day: RateLimiterMemory }>();

@@ -1,15 +1,14 @@
 /**
  * Write-ups on the server: the findings only the server can add (the images are stored,
- * linked sheets are published), the plain text for search and summaries (rendered with
- * the same Markdown syntax and sanitiser as the client), who may see a write-up's images,
+ * linked sheets are published), the plain text for search and summaries (read from the
+ * Markdown parse, never rendered to HTML on the server), who may see a write-up's images,
  * and the list of published write-ups.
  */
 import { Op, col, where } from 'sequelize';
 import type { AppContext } from '../context';
 import { Document, Revision, Upload, User } from '../models';
-import { serverMarkdown, serverPurifier } from '../markdown';
 import { writeupContentSchema, type WriteupContent } from '../../shared/schemas/writeup';
-import { outlineBody, writeupMarkdown } from '../../shared/writeup/markdown';
+import { bodyPlainText, outlineBody } from '../../shared/writeup/markdown';
 import {
   writeupFindings,
   type WriteupFinding,
@@ -20,36 +19,19 @@ import { userRef } from './documents';
 
 type Content = Record<string, unknown>;
 
-let renderer: ReturnType<typeof serverMarkdown> | undefined;
-
-/** The server's renderer of write-up Markdown (sanitised with DOMPurify last). */
-export function writeupRenderer() {
-  renderer ??= serverMarkdown({ plugins: [writeupMarkdown] });
-  return renderer;
-}
-
 /** Reads stored content as a write-up, filling defaults; null when it does not fit at all. */
 export function asWriteup(content: Content): WriteupContent | null {
   const parsed = writeupContentSchema.safeParse(content ?? {});
   return parsed.success ? parsed.data : null;
 }
 
-/** Sanitised HTML of a write-up's body (image and sheet placeholders included). */
-export function renderWriteupHtml(body: string): string {
-  try {
-    return writeupRenderer().render(body);
-  } catch {
-    return '';
-  }
-}
-
 /** The words of a write-up's body without markup: for search and for summaries. */
 export function writeupPlainText(body: string): string {
-  const html = renderWriteupHtml(body);
-  if (!html) return '';
-  const doc = serverPurifier().sanitize(html, { RETURN_DOM: true }) as unknown as HTMLElement;
-  return (doc.textContent ?? '').replace(/\s+/g, ' ').trim();
+  return bodyPlainText(body);
 }
+
+/** How much of the body a summary reads: a line of 160 characters never needs more. */
+const SUMMARY_SOURCE_CHARS = 4_000;
 
 /** Everything a search index needs of a write-up: body text, captions, markings, wire run. */
 export function writeupSearchText(content: Content): string {
@@ -70,7 +52,7 @@ export function writeupSearchText(content: Content): string {
 export function writeupSummary(title: string, content: Content): string {
   const w = asWriteup(content);
   if (w?.summary?.trim()) return w.summary.trim();
-  const text = w ? writeupPlainText(w.body) : '';
+  const text = w ? bodyPlainText(w.body.slice(0, SUMMARY_SOURCE_CHARS)) : '';
   if (!text) return title;
   return text.length > 160 ? `${text.slice(0, 157).trimEnd()}…` : text;
 }

@@ -1,4 +1,10 @@
 import MarkdownIt from 'markdown-it';
+import {
+  MARKDOWN_BUDGET,
+  markdownElementsProblem,
+  markdownSourceProblem,
+  type MarkdownBudget,
+} from './budget';
 
 /** The part of DOMPurify this module uses; the browser's and the server's (jsdom) both fit. */
 export interface Purifier {
@@ -60,11 +66,13 @@ export const ALLOWED_ATTR = [
 export const SAFE_URL = /^(?:https?:\/\/|\/(?!\/)|#)/i;
 
 /** Markdown longer than this is refused rather than rendered (keeps rendering fast). */
-export const MAX_MARKDOWN_LENGTH = 100_000;
+export const MAX_MARKDOWN_LENGTH = MARKDOWN_BUDGET.maxLength;
 
 export interface RenderOptions {
   /** Adds syntax of a document kind (caution blocks, image references, sheet cards). */
   plugins?: Array<(md: MarkdownIt) => void>;
+  /** How much one render may do (`./budget.ts`); text past it is refused. */
+  budget?: MarkdownBudget;
 }
 
 /**
@@ -83,13 +91,23 @@ export function createMarkdownRenderer(purifier: Purifier, opts: RenderOptions =
     return defaultLinkOpen(tokens, idx, options, env, self);
   };
   for (const plugin of opts.plugins ?? []) plugin(md);
+  const budget = opts.budget ?? MARKDOWN_BUDGET;
 
   const config = {
     ALLOWED_TAGS,
     ALLOWED_ATTR,
     ALLOWED_URI_REGEXP: SAFE_URL,
     // DOMPurify tests every attribute's value against the URI pattern unless it is listed here.
-    ADD_URI_SAFE_ATTR: ['rel', 'role', 'data-kind', 'data-ref', 'aria-label', 'start', 'colspan', 'rowspan'],
+    ADD_URI_SAFE_ATTR: [
+      'rel',
+      'role',
+      'data-kind',
+      'data-ref',
+      'aria-label',
+      'start',
+      'colspan',
+      'rowspan',
+    ],
     ALLOW_DATA_ATTR: false,
     ALLOW_ARIA_ATTR: false,
     FORBID_TAGS: ['style', 'svg', 'math', 'form', 'input', 'iframe', 'object', 'embed'],
@@ -98,13 +116,17 @@ export function createMarkdownRenderer(purifier: Purifier, opts: RenderOptions =
 
   return {
     md,
-    /** Renders Markdown to sanitised HTML. Throws a RangeError for over-long input. */
+    /**
+     * Renders Markdown to sanitised HTML. Throws a RangeError, whose message says what to
+     * change, for text past the budget (too long, too many brackets, marks or elements).
+     */
     render(source: string, env: Record<string, unknown> = {}): string {
-      if (source.length > MAX_MARKDOWN_LENGTH)
-        throw new RangeError(
-          `The text is too long to show: keep it under ${MAX_MARKDOWN_LENGTH} characters.`,
-        );
-      return String(purifier.sanitize(md.render(source, env), config));
+      const problem = markdownSourceProblem(source, budget);
+      if (problem) throw new RangeError(problem);
+      const tokens = md.parse(source, env);
+      const tooMany = markdownElementsProblem(tokens, budget);
+      if (tooMany) throw new RangeError(tooMany);
+      return String(purifier.sanitize(md.renderer.render(tokens, md.options, env), config));
     },
   };
 }

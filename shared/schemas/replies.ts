@@ -3,9 +3,10 @@
  * the request bodies and queries of their routes. The client's forms use the same schemas.
  */
 import { z } from 'zod';
+import { REPLY_MARKDOWN_BUDGET, markdownSourceProblem } from '../markdown/budget';
 
 /** A reply's Markdown source may be at most this long. */
-export const MAX_REPLY = 10_000;
+export const MAX_REPLY = REPLY_MARKDOWN_BUDGET.maxLength;
 /** Minutes after posting during which the author may still change a reply. */
 export const REPLY_EDIT_MINUTES = 15;
 export const MAX_FLAG_NOTE = 1000;
@@ -15,7 +16,11 @@ const replyBody = z
   .string({ error: 'must be text' })
   .trim()
   .min(1, { error: 'cannot be empty: write your reply first' })
-  .max(MAX_REPLY, { error: `must be at most ${MAX_REPLY} characters` });
+  .max(MAX_REPLY, { error: `must be at most ${MAX_REPLY} characters` })
+  .superRefine((body, ctx) => {
+    const problem = markdownSourceProblem(body, REPLY_MARKDOWN_BUDGET);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  });
 
 const positiveId = (what: string) =>
   z

@@ -51,6 +51,14 @@ export function writeupFindings(
   const warnings: WriteupFinding[] = [];
   const images = content.images ?? [];
 
+  if (outline.problem)
+    errors.push({
+      code: 'BODY_TOO_COMPLEX',
+      severity: 'error',
+      field: 'body',
+      message: outline.problem,
+    });
+
   if (!(content.body ?? '').trim())
     errors.push({
       code: 'BODY_EMPTY',

@@ -13,6 +13,7 @@
  * The HTML they emit uses only tags and attributes the sanitiser keeps; the client
  * replaces the marked elements with its components (see the class names below).
  */
+import { markdownElementsProblem, markdownSourceProblem } from '../markdown/budget';
 import MarkdownIt, {
   type StateBlock,
   type StateCore,
@@ -287,19 +288,27 @@ export interface BodyOutline {
   sheets: Array<{ slug: string; line: number }>;
   /** Prose outside caution blocks and code, with its first line (1-based). */
   text: Array<{ text: string; line: number }>;
+  /** Why the body cannot be shown (past the Markdown budget), or null; nothing else is read then. */
+  problem: string | null;
 }
 
 let parser: MarkdownIt | undefined;
 
+function outlineParser() {
+  const md = new MarkdownIt({ html: false, linkify: false });
+  writeupMarkdown(md);
+  return md;
+}
+
 /** Parses a write-up's Markdown and lists its caution blocks, image references, sheet links and prose. */
 export function outlineBody(body: string): BodyOutline {
-  parser ??= (() => {
-    const md = new MarkdownIt({ html: false, linkify: false });
-    writeupMarkdown(md);
-    return md;
-  })();
-  const out: BodyOutline = { cautions: [], images: [], sheets: [], text: [] };
+  parser ??= outlineParser();
+  const out: BodyOutline = { cautions: [], images: [], sheets: [], text: [], problem: null };
+  out.problem = markdownSourceProblem(body);
+  if (out.problem) return out;
   const tokens = parser.parse(body, {});
+  out.problem = markdownElementsProblem(tokens);
+  if (out.problem) return out;
   let depth = 0;
   let line = 1;
   for (const t of tokens) {
@@ -334,6 +343,41 @@ export function outlineBody(body: string): BodyOutline {
     if (depth === 0 && words.length) out.text.push({ text: words.join(''), line });
   }
   return out;
+}
+
+/**
+ * The words of a write-up's body without markup, as a reader sees them: caution labels,
+ * figure captions, image and sheet link words, code. Read from the parse alone (no HTML,
+ * no DOM), so it costs one linear pass however much formatting the text holds.
+ */
+export function bodyPlainText(body: string): string {
+  if (markdownSourceProblem(body)) return '';
+  parser ??= outlineParser();
+  const words: string[] = [];
+  const inline = (kids: Token[]) => {
+    for (const k of kids) {
+      if (k.type === 'text' || k.type === 'code_inline') words.push(k.content);
+      else if (k.type === 'softbreak' || k.type === 'hardbreak') words.push(' ');
+      else if (k.type === 'image') {
+        const n = imageNumber(k);
+        const alt = plainText(k.children ?? []);
+        words.push(n !== null && !alt ? `image ${n}` : alt);
+      } else if (k.type === 'wu_sheet') {
+        const { slug, label } = k.meta as { slug: string; label: string };
+        words.push(label || slug);
+      }
+    }
+  };
+  for (const t of parser.parse(body, {})) {
+    if (t.type === 'inline') inline(t.children ?? []);
+    else if (t.type === 'fence' || t.type === 'code_block') words.push(t.content);
+    else if (t.type === 'wu_caution_open') {
+      const { kind, title } = t.meta as { kind: WriteupCautionKind; title: string };
+      words.push(title ? `Caution: ${title}` : `Caution (${kind})`);
+    } else if (t.type === 'wu_figure') words.push((t.meta as { caption: string }).caption);
+    words.push(' ');
+  }
+  return words.join('').replace(/\s+/g, ' ').trim();
 }
 
 /**

@@ -13,6 +13,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { runCheckBench } from './check.bench';
 import { runSearchBench } from './search.bench';
+import { runMarkdownBench } from './markdown.bench';
 import { firstLoadReport, printBundle } from './bundle';
 
 export interface BenchPart {
@@ -32,6 +33,12 @@ export const PARTS: BenchPart[] = [
     description:
       'search and a connector sheet at 32 connections over 10 000 sheets, beside a bare baseline',
     run: (log) => runSearchBench(log),
+  },
+  {
+    name: 'markdown',
+    description:
+      'hostile Markdown at the budget limits: a reply, a write-up outline and search text, a page in Chromium',
+    run: (log) => runMarkdownBench(log),
   },
   {
     name: 'bundle',

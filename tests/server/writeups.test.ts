@@ -4,11 +4,16 @@ import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/c
 import { png } from '../helpers/images';
 import { XSS_PAYLOADS } from '../helpers/xssPayloads';
 import { emptyWire } from '../../shared/schemas/writeup';
+import { writeupMarkdown } from '../../shared/writeup/markdown';
+import { serverMarkdown } from '../../server/markdown';
 import {
-  renderWriteupHtml,
   writeupPlainText,
   writeupSearchText,
+  writeupSummary,
 } from '../../server/services/writeups';
+
+/** The write-up syntax sanitised by the server's DOMPurify, as the client renders it. */
+const writeupHtml = serverMarkdown({ plugins: [writeupMarkdown] });
 
 let env: TestEnv;
 let author: Client;
@@ -312,10 +317,17 @@ function executableParts(html: string): string[] {
 
 describe('write-up Markdown on the server', () => {
   it.each(XSS_PAYLOADS)('renders nothing executable from %s', (payload) => {
-    const html = renderWriteupHtml(payload);
+    const html = writeupHtml.render(payload);
     expect(executableParts(html)).toEqual([]);
     // Whatever survives as text is escaped: no raw tag can open.
     expect(html).not.toMatch(/<(script|svg|math|iframe|object|style|form)/i);
+  });
+
+  it('summarises a long body from its opening words', () => {
+    const body = `Moved the **level sensor** forward.\n\n${'Then [a](/x) and *b*. '.repeat(20_000)}`;
+    const summary = writeupSummary('Title', { body: body.slice(0, 100_000) });
+    expect(summary.startsWith('Moved the level sensor forward. Then a and b.')).toBe(true);
+    expect(summary.length).toBeLessThanOrEqual(160);
   });
 
   it('gives plain text for search and summaries, without markup', () => {
@@ -324,6 +336,13 @@ describe('write-up Markdown on the server', () => {
         '# Steps\n\n:::caution fuel\nRelieve it.\n:::\n\nCut **one** wire. <b>x</b>',
       ),
     ).toBe('Steps Caution (fuel) Relieve it. Cut one wire. <b>x</b>');
+    expect(
+      writeupPlainText(
+        ':::caution battery Disconnect first\nOff.\n:::\n\n![The bracket](image:1)\n\nSee [[sheet:pump-plug|the pump plug]], ![](image:2) and `GN/YE`.\n\n```\n12.4 V\n```',
+      ),
+    ).toBe(
+      'Caution: Disconnect first Off. The bracket See the pump plug, image 2 and GN/YE. 12.4 V',
+    );
     expect(
       writeupSearchText({
         body: 'Text',
