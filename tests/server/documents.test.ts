@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/context';
-import type { ConnectorContent } from '../../shared/schemas/connector';
+import { threeWaySensor } from '../helpers/fixtures';
 
 let env: TestEnv;
 let author: Client;
@@ -25,22 +25,7 @@ beforeAll(async () => {
 });
 afterAll(() => env.close());
 
-const sensor = (over: Partial<ConnectorContent> = {}): ConnectorContent => ({
-  cavities: ['A', 'B', 'C'],
-  layout: { rows: 1, cols: 3 },
-  housing: 'socket',
-  view: 'wire-side',
-  sealed: true,
-  component: 'coolant temperature sensor',
-  tags: ['Brindlemoor 4.2 platform'],
-  wireSize: { min: '22 AWG', max: '18 AWG' },
-  pins: [
-    { cavity: 'A', role: '5 V reference', color: 'GY', size: '20 AWG', circuit: '', note: '' },
-    { cavity: 'B', role: 'signal', color: 'GN/YE', size: '20 AWG', circuit: '', note: '' },
-    { cavity: 'C', role: 'low reference', color: 'BK/WH', size: '20 AWG', circuit: '', note: '' },
-  ],
-  ...over,
-});
+const sensor = threeWaySensor;
 
 async function createSheet(c: Client = author, title = 'Coolant sensor plug', content = sensor()) {
   const res = await c.post('/api/documents', { kind: 'connector', title, content });

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/context';
 import { jpeg } from '../helpers/images';
+import { threeWaySensor } from '../helpers/fixtures';
 
 /**
  * The owner matrix: every route that touches one record, tried as the record's owner, as
@@ -68,21 +69,7 @@ beforeEach(async () => {
   bystander = (await clientAs(env, 'member')).client;
 });
 
-const connector = () => ({
-  cavities: ['A', 'B', 'C'],
-  layout: { rows: 1, cols: 3 },
-  housing: 'socket',
-  view: 'wire-side',
-  sealed: true,
-  component: 'invented level sensor',
-  tags: ['Brindlemoor 4.2 platform'],
-  wireSize: { min: '22 AWG', max: '18 AWG' },
-  pins: [
-    { cavity: 'A', role: '5 V reference', color: 'GY', size: '20 AWG', circuit: '', note: '' },
-    { cavity: 'B', role: 'signal', color: 'GN/YE', size: '20 AWG', circuit: '', note: '' },
-    { cavity: 'C', role: 'low reference', color: 'BK/WH', size: '20 AWG', circuit: '', note: '' },
-  ],
-});
+const connector = () => threeWaySensor({ component: 'invented level sensor' });
 
 const adapter = () => ({
   systemVoltage: 12,
