@@ -9,6 +9,7 @@ import type { AppContext } from './context';
 import { HttpError } from './errors';
 import { isBusyError } from './db/sequelize';
 import { csrfProtection } from './http/csrf';
+import { refuseNul } from './http/nul';
 import { mount } from './http/access';
 import { configurePassport } from './auth/passport';
 import { apiRoutes, CSRF_EXEMPT } from './routes';
@@ -45,7 +46,9 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
           ...(config.isProduction ? { upgradeInsecureRequests: [] } : {}),
         },
       },
-      strictTransportSecurity: config.isProduction ? { maxAge: 31536000, includeSubDomains: true } : false,
+      strictTransportSecurity: config.isProduction
+        ? { maxAge: 31536000, includeSubDomains: true }
+        : false,
       referrerPolicy: { policy: 'strict-origin-when-cross-origin' },
       crossOriginEmbedderPolicy: false,
     }),
@@ -55,7 +58,11 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
       logger,
       autoLogging: { ignore: (req) => req.url === '/api/health' },
       serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        req: (req: { id: unknown; method: string; url: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url,
+        }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : 'info'),
@@ -64,6 +71,7 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb', strict: false }));
+  api.use(refuseNul());
   // A reader without a session cookie has no session to find, and public reads never
   // start one: they skip the session, passport and their per-request hashing.
   const anonymousRead = (req: express.Request) =>
@@ -98,7 +106,13 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
   api.use(csrfProtection(CSRF_EXEMPT));
   apiRoutes(ctx, api);
   api.use((req, _res, next) => {
-    next(new HttpError(404, 'NOT_FOUND', `There is no API route ${req.method} ${req.baseUrl}${req.path}.`));
+    next(
+      new HttpError(
+        404,
+        'NOT_FOUND',
+        `There is no API route ${req.method} ${req.baseUrl}${req.path}.`,
+      ),
+    );
   });
   mount(app, '/api', api);
 
@@ -110,7 +124,9 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
       res
         .status(503)
         .type('text/plain')
-        .send('The client has not been built yet. Run "npm run build" (npm start does it for you).');
+        .send(
+          'The client has not been built yet. Run "npm run build" (npm start does it for you).',
+        );
       return;
     }
     res.setHeader('Cache-Control', 'no-cache');
@@ -126,9 +142,15 @@ function errorHandler(ctx: AppContext): ErrorRequestHandler {
     void _next;
     let status = 500;
     let code = 'INTERNAL';
-    let message = 'Something went wrong on our side. Please try again; if it keeps happening, tell an admin.';
+    let message =
+      'Something went wrong on our side. Please try again; if it keeps happening, tell an admin.';
     let details: unknown;
-    const e = err as { type?: string; status?: number; name?: string; errors?: Array<{ message: string; path?: string }> };
+    const e = err as {
+      type?: string;
+      status?: number;
+      name?: string;
+      errors?: Array<{ message: string; path?: string }>;
+    };
     if (err instanceof HttpError) {
       ({ status, code, message, details } = err);
     } else if (e?.type === 'entity.parse.failed') {
@@ -152,7 +174,10 @@ function errorHandler(ctx: AppContext): ErrorRequestHandler {
       code = 'BUSY';
       message = 'The database is busy right now. Please try again in a moment; nothing was saved.';
       res.setHeader('Retry-After', '2');
-    } else if (e?.name === 'SequelizeValidationError' || e?.name === 'SequelizeUniqueConstraintError') {
+    } else if (
+      e?.name === 'SequelizeValidationError' ||
+      e?.name === 'SequelizeUniqueConstraintError'
+    ) {
       status = e.name === 'SequelizeUniqueConstraintError' ? 409 : 400;
       code = status === 409 ? 'CONFLICT' : 'VALIDATION';
       message = e.errors?.[0]?.message ? `${e.errors[0].message}.` : 'The data is not valid.';
@@ -160,7 +185,8 @@ function errorHandler(ctx: AppContext): ErrorRequestHandler {
     if (status >= 500 && status !== 503) req.log?.error({ err }, 'unhandled error');
     const body: { error: Record<string, unknown> } = { error: { code, message } };
     if (details !== undefined) body.error.details = details;
-    if (status >= 500 && ctx.config.env === 'development' && err instanceof Error) body.error.stack = err.stack;
+    if (status >= 500 && ctx.config.env === 'development' && err instanceof Error)
+      body.error.stack = err.stack;
     if (!res.headersSent) res.status(status).json(body);
   };
 }

@@ -146,4 +146,96 @@ describe('every JSON route under generated input', () => {
     expect(failures).toEqual([]);
     expect(await snapshot()).toBe(before);
   }, 600_000);
+
+  it('answers no 500 to generated query strings and path values on every GET route', async () => {
+    const routes = listRoutes((env.app as unknown as { router: { stack: never[] } }).router).filter(
+      (r) => r.method === 'GET' && r.path.startsWith('/api/'),
+    );
+    expect(routes.length).toBeGreaterThan(10);
+    const knownKeys = fc.constantFrom(
+      'q',
+      'kind',
+      'cavities',
+      'cavitiesMin',
+      'cavitiesMax',
+      'component',
+      'sealed',
+      'housing',
+      'color',
+      'role',
+      'tag',
+      'sort',
+      'limit',
+      'offset',
+      'revision',
+      'status',
+      'token',
+      'ids',
+    );
+    const key = fc.oneof(knownKeys, hostileKey, fc.string({ maxLength: 10 }), fc.constant('q[]'));
+    const value = fc.oneof(
+      hostileString,
+      fc.integer().map(String),
+      fc.constantFrom('-1', '1e309', 'NaN', '0x10', ''),
+    );
+    // Raw pieces URLSearchParams would never write: broken escapes, bare separators.
+    const raw = fc.constantFrom('%', '%E0%A4%A', '%ZZ', '&&&', '==', 'q=%00', 'q=%uD800', '+%2B+');
+    const query = fc.oneof(
+      {
+        weight: 4,
+        arbitrary: fc
+          .array(fc.tuple(key, value), { maxLength: 6 })
+          .map((pairs) => new URLSearchParams(pairs).toString()),
+      },
+      { weight: 1, arbitrary: raw },
+    );
+    const who = Object.keys(clients);
+    const failures: string[] = [];
+    let sent = 0;
+    for (const route of routes) {
+      await fc
+        .assert(
+          fc.asyncProperty(query, pathValue, fc.nat(), async (q, p, w) => {
+            const url = `${route.path.replace(/:[A-Za-z]+/g, p)}?${q}`;
+            const res = await clients[who[w % who.length]].agent.get(url);
+            sent++;
+            if (res.status >= 500 && res.status !== 503)
+              failures.push(
+                `GET ${url} as ${who[w % who.length]} → ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`,
+              );
+            expect(res.status < 500 || res.status === 503).toBe(true);
+          }),
+          { numRuns: 40, endOnFailure: true },
+        )
+        .catch((err) => failures.push(String(err).slice(0, 500)));
+    }
+    console.log(`fuzz: ${sent} query strings over ${routes.length} GET routes`);
+    expect(failures).toEqual([]);
+  }, 300_000);
+
+  it('answers 400 NUL_CHARACTER for a NUL in the address, the query or anywhere in a JSON body', async () => {
+    const c = clients.member;
+    for (const url of [
+      '/api/documents/%00',
+      '/api/documents/a%00b/replies',
+      '/api/search?q=pump%00',
+    ]) {
+      const res = await c.agent.get(url);
+      expect(res.status, url).toBe(400);
+      expect(res.body.error.code).toBe('NUL_CHARACTER');
+    }
+    const body = await c.post('/api/documents', {
+      kind: 'connector',
+      title: 'Plug',
+      content: { notes: ['a', { deep: 'x\u0000y' }] },
+    });
+    expect(body.status).toBe(400);
+    expect(body.body.error.message).toMatch(/NUL character \(U\+0000\)/);
+    const key = await c.post('/api/adapters/check', {
+      ends: { A: {}, B: {} },
+      circuits: [],
+      ['k\u0000']: 1,
+    });
+    expect(key.status).toBe(400);
+  });
 });
