@@ -6,8 +6,12 @@ import { Notify, Quasar } from 'quasar';
 import PinMap from '@/components/connector/PinMap.vue';
 import PinTableEditor from '@/components/connector/PinTableEditor.vue';
 import {
+  MIN_PITCH,
+  MIN_TEXT_PX,
   buildPinMap,
   describeCavity,
+  pinMapGeometry,
+  placeCavity,
   sizeText,
   wirePaint,
 } from '@/components/connector/pinMapModel';
@@ -57,6 +61,68 @@ describe('pin map model', () => {
     expect(describeCavity(c)).toBe('Cavity 2: signal, GN/YE (green with a yellow tracer), 0.5 mm²');
     expect(sizeText('18awg')).toBe('18 AWG');
     expect(sizeText('eighteen')).toBe('eighteen');
+  });
+});
+
+describe('pin map geometry', () => {
+  /** The box a pin map has on a 375 px phone. */
+  const PHONE_BOX = 317;
+  const cavity = (label: string, row: number, col: number, color = 'BK/WH') => ({
+    label,
+    row,
+    col,
+    paint: wirePaint(color),
+  });
+
+  it('keeps the natural drawing where there is room, on paper and while unmeasured', () => {
+    for (const available of [undefined, 1200]) {
+      const geo = pinMapGeometry(2, 6, { available });
+      expect(geo).toMatchObject({ mode: 'natural', fits: true, px: 92, codeSize: 13 });
+      expect(geo.drawWidth).toBe(geo.width);
+    }
+    // A small plug is drawn larger than natural, and still shrinks readably into a phone.
+    expect(pinMapGeometry(1, 3, { available: PHONE_BOX })).toMatchObject({
+      mode: 'natural',
+      drawWidth: Math.round(pinMapGeometry(1, 3).width * 1.25),
+    });
+  });
+
+  it('pitches a wide plug to a phone’s box, drawn 1:1 with text of 10 px or more', () => {
+    const geo = pinMapGeometry(2, 6, { available: PHONE_BOX });
+    expect(geo).toMatchObject({ mode: 'narrow', fits: true, width: PHONE_BOX });
+    expect(geo.drawWidth).toBe(PHONE_BOX);
+    expect(geo.px).toBeGreaterThanOrEqual(MIN_PITCH);
+    expect(geo.body.x).toBeGreaterThanOrEqual(0);
+    expect(geo.body.x + geo.body.w).toBeLessThanOrEqual(geo.width);
+    expect(geo.codeSize).toBeGreaterThanOrEqual(MIN_TEXT_PX);
+
+    const first = placeCavity(geo, cavity('1', 0, 0));
+    const last = placeCavity(geo, cavity('12', 1, 5));
+    // The code sits centred under its swatch, under its hole, and inside the drawing.
+    expect(first).toMatchObject({ codeAnchor: 'middle', codeX: first.cx, codeText: 'BK/WH' });
+    expect(first.codeY).toBeGreaterThan(first.sy + geo.sh);
+    const halfCode = (first.codeText.length * 0.62 * geo.codeSize) / 2;
+    expect(first.cx - halfCode).toBeGreaterThan(geo.body.x);
+    expect(last.cx + halfCode).toBeLessThan(geo.body.x + geo.body.w);
+    expect(last.codeY + geo.codeSize / 2).toBeLessThan(geo.body.y + geo.body.h);
+    expect(last.labelSize).toBeGreaterThanOrEqual(MIN_TEXT_PX);
+    expect(placeCavity(geo, cavity('A12B', 0, 0)).labelSize).toBeGreaterThanOrEqual(MIN_TEXT_PX);
+    // A code longer than the pitch holds ends in an ellipsis (the table has it in full).
+    expect(placeCavity(geo, cavity('1', 0, 0, 'GN/YE/BK')).codeText).toMatch(/^GN\/Y.*…$/);
+  });
+
+  it('says when even the narrowest readable pitch is wider than the box', () => {
+    const geo = pinMapGeometry(2, 13, { available: PHONE_BOX });
+    expect(geo).toMatchObject({ mode: 'narrow', fits: false, px: MIN_PITCH });
+    expect(geo.width).toBeGreaterThan(PHONE_BOX);
+  });
+
+  it('draws the natural code beside its swatch as before', () => {
+    const geo = pinMapGeometry(2, 3);
+    const c = placeCavity(geo, cavity('2', 0, 1, 'GN/YE'));
+    expect(c).toMatchObject({ codeAnchor: 'start', codeX: c.sx + geo.sw + 4, codeText: 'GN/YE' });
+    expect(c.codeY).toBe(c.sy + geo.sh / 2);
+    expect(placeCavity(geo, cavity('2', 0, 1, 'ABCDEFGHIJ')).codeText).toBe('ABCDEFGH…');
   });
 });
 
