@@ -349,7 +349,6 @@ describe('GET /api/search', () => {
       '\\',
       '%',
       '_',
-      '\u0000coolant',
       '"coolant',
       'coolant"',
       '"coo"lant"',
@@ -364,6 +363,10 @@ describe('GET /api/search', () => {
       const s = await reader.get(`/api/search/suggest?q=${encodeURIComponent(q)}`);
       expect(s.status, q).toBe(200);
     }
+    // A NUL is the one character no field accepts anywhere: a sentence, not a search.
+    const nul = await reader.get(`/api/search?q=${encodeURIComponent('\u0000coolant')}`);
+    expect(nul.status).toBe(400);
+    expect(nul.body.error.code).toBe('NUL_CHARACTER');
     // Operators are not operators: NOT does not exclude.
     const or = await search(`q=${encodeURIComponent('coolant OR pump')}`);
     expect(or.total).toBe(0);
