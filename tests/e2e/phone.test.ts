@@ -130,8 +130,103 @@ async function expectStackedDiagram(page: Page, shot: string) {
   await page.setViewportSize(PHONE);
 }
 
+/**
+ * The reading tables and the pin map neither scroll sideways inside their boxes nor stick
+ * out of them: the page fitting is not enough, as a table in a scroller fits the page
+ * while its last columns are out of sight. Then the pin map: every cavity label and code
+ * inside the drawing and drawn at 10 px or more. Shoots each table and the pin map.
+ */
+async function expectReadingFits(page: Page, shot: string) {
+  const found = await page.evaluate(() => {
+    const main = document.querySelector('main')!;
+    const name = (el: Element) =>
+      `${el.tagName.toLowerCase()}.${[...el.classList].slice(0, 2).join('.')}${
+        el.getAttribute('data-test') ? `[data-test=${el.getAttribute('data-test')}]` : ''
+      }`;
+    const scrolls: string[] = [];
+    for (const el of main.querySelectorAll<HTMLElement>('*')) {
+      const ox = getComputedStyle(el).overflowX;
+      if ((ox === 'auto' || ox === 'scroll') && el.clientWidth > 1) {
+        if (el.scrollWidth > el.clientWidth + 1)
+          scrolls.push(`${name(el)} ${el.scrollWidth}/${el.clientWidth} px`);
+      }
+    }
+    const wide: string[] = [];
+    const tables = [...main.querySelectorAll<HTMLElement>('table')].filter(
+      (t) => t.getBoundingClientRect().width > 0,
+    );
+    for (const t of tables) {
+      const box = t.parentElement!.getBoundingClientRect();
+      const own = t.getBoundingClientRect();
+      if (own.right > box.right + 1 || own.left < box.left - 1)
+        wide.push(`${name(t)} ${Math.round(own.width)}/${Math.round(box.width)} px`);
+    }
+    const maps = [...main.querySelectorAll<SVGSVGElement>('figure.lw-pinmap svg.lw-pinmap__svg')]
+      .filter((svg) => !svg.closest('.lw-pinmap--compact'))
+      .map((svg) => {
+        const box = svg.getBoundingClientRect();
+        const scale = box.width / svg.viewBox.baseVal.width;
+        const texts = [...svg.querySelectorAll<SVGTextElement>('text')];
+        const outside = texts
+          .filter((t) => {
+            const r = t.getBoundingClientRect();
+            return r.left < box.left - 1 || r.right > box.right + 1;
+          })
+          .map((t) => t.textContent!.trim());
+        const small = [
+          ...svg.querySelectorAll<SVGTextElement>('text.lw-pinmap__label, text.lw-pinmap__code'),
+        ]
+          .map((t) => ({
+            text: t.textContent!.trim(),
+            px: parseFloat(getComputedStyle(t).fontSize) * scale,
+          }))
+          .filter((t) => t.px < 10 - 0.01)
+          .map((t) => `${t.text} ${t.px.toFixed(1)} px`);
+        return {
+          mode: svg.getAttribute('data-mode'),
+          view: svg.querySelector('text.lw-pinmap__viewtext')?.textContent?.trim() ?? '',
+          cavities: svg.querySelectorAll('g.lw-pinmap__cavity').length,
+          swatches: svg.querySelectorAll('g.lw-pinmap__wire').length,
+          codes: svg.querySelectorAll('g.lw-pinmap__wire text.lw-pinmap__code').length,
+          outside,
+          small,
+        };
+      });
+    return { scrolls, wide, tables: tables.length, maps };
+  });
+  expect(found.scrolls, `${shot}: boxes that scroll sideways`).toEqual([]);
+  expect(found.wide, `${shot}: tables wider than their box`).toEqual([]);
+  for (const map of found.maps) {
+    expect(map.view, `${shot}: the pin map names its view side`).toMatch(/^Viewed from: /);
+    expect(map.codes, `${shot}: a printed code beside every swatch`).toBe(map.swatches);
+    expect(map.outside, `${shot}: pin map text outside the drawing`).toEqual([]);
+    expect(map.small, `${shot}: pin map text under 10 px`).toEqual([]);
+  }
+  // A window as tall as each part, so the fixed header does not cover it in the shot.
+  const parts = [
+    ['figure.lw-pinmap:not(.lw-pinmap--compact)', 'pinmap'],
+    ['[data-test="pin-table"]', 'pin-table'],
+    ['[data-test="adapter-table"]', 'adapter-table'],
+    ['section.lw-cut', 'cut-list'],
+    ['[data-test="parts-list"]', 'parts-list'],
+    ['[data-test="wire-run"]', 'wire-run'],
+  ] as const;
+  for (const [selector, part] of parts) {
+    const el = page.locator(selector).first();
+    if (!(await el.count())) continue;
+    const height = await el.evaluate((e) => e.getBoundingClientRect().height);
+    await page.setViewportSize({ width: PHONE.width, height: Math.ceil(height) + 160 });
+    await el.evaluate((e) => e.scrollIntoView({ block: 'center' }));
+    await elementShot(page, selector, `phone-${shot}-${part}`);
+  }
+  await page.setViewportSize(PHONE);
+  return found;
+}
+
 interface Found {
   connector: string;
+  /** The connector with the most cavities: the widest pin map. */
+  widestConnector: string;
   adapters: string[];
   writeups: string[];
   /** The member's own documents to edit, one of each kind they have. */
@@ -139,7 +234,14 @@ interface Found {
   /** One review per kind in the queue. */
   reviews: Array<{ kind: string; revisionId: number }>;
 }
-const found: Found = { connector: '', adapters: [], writeups: [], edits: [], reviews: [] };
+const found: Found = {
+  connector: '',
+  widestConnector: '',
+  adapters: [],
+  writeups: [],
+  edits: [],
+  reviews: [],
+};
 const pages = new Map<Who, Page>();
 
 async function pageAs(who: Who): Promise<Page> {
@@ -163,6 +265,13 @@ beforeAll(async () => {
   // The connector with the most cavities draws the widest pin map.
   const connectors = await getJson<Items>(reader, '/api/search?kind=connector&sort=cavities');
   found.connector = connectors.items[0].slug;
+  const widest = await getJson<{ items: Array<{ slug: string; cavityCount: number }> }>(
+    reader,
+    '/api/search?kind=connector&limit=100',
+  );
+  found.widestConnector = widest.items.reduce((a, b) =>
+    b.cavityCount > a.cavityCount ? b : a,
+  ).slug;
   found.adapters = (await getJson<Items>(reader, '/api/search?kind=adapter')).items.map(
     (i) => i.slug,
   );
@@ -231,6 +340,20 @@ describe('every main page on a 375 px phone', () => {
   it('a connector sheet, every adapter sheet (diagram stacked) and every write-up fit', async () => {
     const reader = await pageAs('reader');
     await visit(reader, `/documents/${found.connector}`, 'connector-sheet');
+    await expectReadingFits(reader, 'connector-sheet');
+    await visit(reader, `/documents/${found.widestConnector}`, 'connector-sheet-widest');
+    const widest = await expectReadingFits(reader, 'connector-sheet-widest');
+    expect(
+      widest.maps.map((m) => m.mode),
+      'the wide pin map is pitched to the phone',
+    ).toEqual(['narrow']);
+    expect(widest.tables, 'the pinout table').toBeGreaterThan(0);
+    // On paper the pin map is the natural drawing again, whatever the screen was.
+    await reader.emulateMedia({ media: 'print' });
+    await expect
+      .poll(() => reader.locator('svg.lw-pinmap__svg').first().getAttribute('data-mode'))
+      .toBe('natural');
+    await reader.emulateMedia({ media: 'screen' });
     expect(found.adapters.length).toBeGreaterThan(0);
     for (const [k, slug] of found.adapters.entries()) {
       await visit(
@@ -240,10 +363,12 @@ describe('every main page on a 375 px phone', () => {
         '[data-test="adapter-diagram"]',
       );
       await expectStackedDiagram(reader, `adapter-sheet-${k + 1}`);
+      await expectReadingFits(reader, `adapter-sheet-${k + 1}`);
     }
     expect(found.writeups.length).toBeGreaterThan(0);
     for (const [k, slug] of found.writeups.entries()) {
       await visit(reader, `/documents/${slug}`, `writeup-${k + 1}`);
+      await expectReadingFits(reader, `writeup-${k + 1}`);
     }
   }, 180_000);
 
