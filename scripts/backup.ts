@@ -5,7 +5,9 @@ import { backupDatabase } from '../server/db/backup';
 
 const config = loadConfig();
 const stamp = new Date().toISOString().replace(/[:.]/g, '-');
-const target = path.resolve(process.argv[2] ?? path.join(config.dataDir, 'backups', `loomwright-${stamp}.sqlite`));
+const target = path.resolve(
+  process.argv[2] ?? path.join(config.dataDir, 'backups', `loomwright-${stamp}.sqlite`),
+);
 
 backupDatabase(config.databaseFile, target)
   .then(() => console.log(`Backup written to ${target}`))

@@ -2,7 +2,10 @@
 import { spawn } from 'node:child_process';
 
 const children = [
-  spawn('node', ['--watch', '--import', 'tsx', 'server/index.ts'], { stdio: 'inherit', env: process.env }),
+  spawn('node', ['--watch', '--import', 'tsx', 'server/index.ts'], {
+    stdio: 'inherit',
+    env: process.env,
+  }),
   spawn('npx', ['vite'], { stdio: 'inherit', env: process.env }),
 ];
 

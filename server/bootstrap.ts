@@ -24,7 +24,8 @@ const SERVED_DIRS = ['dist', 'public'].map((d) => path.resolve(import.meta.dirna
 function developmentSecret(dataDir: string): string {
   const file = path.join(dataDir, 'session-secret');
   fs.mkdirSync(dataDir, { recursive: true });
-  if (!fs.existsSync(file)) fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+  if (!fs.existsSync(file))
+    fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
   return fs.readFileSync(file, 'utf8').trim();
 }
 
@@ -55,7 +56,8 @@ export async function createContext(config: Config): Promise<AppContext> {
   const resolved: Config = { ...config, sessionSecret };
 
   let fakeSmtp: FakeSmtp | undefined;
-  if (!config.isProduction && !config.smtpUrl) fakeSmtp = await startFake(config.devSmtpPort, logger);
+  if (!config.isProduction && !config.smtpUrl)
+    fakeSmtp = await startFake(config.devSmtpPort, logger);
   const transport = createTransport(config.smtpUrl ?? fakeSmtp!.url);
   const outbox = new OutboxWorker({
     transport,

@@ -17,7 +17,12 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   SEED_DEMO: z.enum(['true', 'false']).optional(),
   // Lower scrypt cost for test servers only; refused in production.
-  PASSWORD_HASH_N: z.coerce.number().int().min(1024).max(2 ** 20).optional(),
+  PASSWORD_HASH_N: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .max(2 ** 20)
+    .optional(),
   // Off only to measure reads without their caches.
   ANSWER_CACHE: z.enum(['on', 'off']).optional(),
 });
@@ -103,7 +108,11 @@ export function loadConfig(
     mailFrom: e.MAIL_FROM,
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
     seedDemo: e.SEED_DEMO ? e.SEED_DEMO === 'true' : !isProduction,
-    passwordHashCost: { N: !isProduction && e.PASSWORD_HASH_N ? e.PASSWORD_HASH_N : 2 ** 17, r: 8, p: 1 },
+    passwordHashCost: {
+      N: !isProduction && e.PASSWORD_HASH_N ? e.PASSWORD_HASH_N : 2 ** 17,
+      r: 8,
+      p: 1,
+    },
     session: { idleMs: 12 * 60 * 60 * 1000, absoluteMs: 7 * 24 * 60 * 60 * 1000 },
     throttle: { perAccount: 5, perIp: 30, windowMs: 15 * 60 * 1000 },
     outbox: { pollMs: 1000, maxAttempts: 6, baseBackoffMs: 2000 },

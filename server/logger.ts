@@ -4,7 +4,10 @@ import { pino, type Logger } from 'pino';
 export function createLogger(level: string): Logger {
   return pino({
     level,
-    redact: { paths: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'password'], remove: true },
+    redact: {
+      paths: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'password'],
+      remove: true,
+    },
   });
 }
 export type { Logger };

@@ -76,7 +76,10 @@ export const MIN_PASSWORD_LENGTH = 10;
  * Returns a sentence saying what is wrong with a new password, or null when it is fine.
  * Very common passwords are refused whatever their length (NIST SP 800-63B, 5.1.1.2).
  */
-export async function passwordProblem(password: string, context: string[] = []): Promise<string | null> {
+export async function passwordProblem(
+  password: string,
+  context: string[] = [],
+): Promise<string | null> {
   if (password.length < MIN_PASSWORD_LENGTH)
     return `The password must be at least ${MIN_PASSWORD_LENGTH} characters long.`;
   if (password.length > 200) return 'The password must be at most 200 characters long.';

@@ -42,7 +42,8 @@ export class SequelizeSessionStore extends session.Store {
       .then(async (row) => {
         if (!row) return cb(null, null);
         const data = JSON.parse(row.data) as SessionData;
-        const tooOld = data.createdAt !== undefined && Date.now() - data.createdAt > this.opts.absoluteMs;
+        const tooOld =
+          data.createdAt !== undefined && Date.now() - data.createdAt > this.opts.absoluteMs;
         if (row.expires.getTime() <= Date.now() || tooOld) {
           await row.destroy();
           return cb(null, null);

@@ -18,7 +18,9 @@ export class LoginThrottle {
   /** Throws 429 when either counter is used up. */
   async check(email: string, ip: string) {
     const [a, i] = await Promise.all([this.account.get(email), this.ip.get(ip)]);
-    const blocked = [a, i].find((r, n) => r && r.consumedPoints >= (n === 0 ? this.account.points : this.ip.points));
+    const blocked = [a, i].find(
+      (r, n) => r && r.consumedPoints >= (n === 0 ? this.account.points : this.ip.points),
+    );
     if (blocked) {
       const minutes = Math.max(1, Math.ceil(blocked.msBeforeNext / 60000));
       throw new HttpError(
@@ -30,10 +32,7 @@ export class LoginThrottle {
   }
 
   async failed(email: string, ip: string) {
-    await Promise.all([
-      this.account.penalty(email, 1),
-      this.ip.penalty(ip, 1),
-    ]);
+    await Promise.all([this.account.penalty(email, 1), this.ip.penalty(ip, 1)]);
   }
 
   async succeeded(email: string) {

@@ -8,9 +8,13 @@ function open(file: string, mode = sqlite3.OPEN_READWRITE): Promise<sqlite3.Data
   });
 }
 const run = (db: sqlite3.Database, sql: string, params: unknown[] = []) =>
-  new Promise<void>((resolve, reject) => db.run(sql, params, (err) => (err ? reject(err) : resolve())));
+  new Promise<void>((resolve, reject) =>
+    db.run(sql, params, (err) => (err ? reject(err) : resolve())),
+  );
 const all = <T>(db: sqlite3.Database, sql: string) =>
-  new Promise<T[]>((resolve, reject) => db.all(sql, (err, rows) => (err ? reject(err) : resolve(rows as T[]))));
+  new Promise<T[]>((resolve, reject) =>
+    db.all(sql, (err, rows) => (err ? reject(err) : resolve(rows as T[]))),
+  );
 const close = (db: sqlite3.Database) => new Promise<void>((resolve) => db.close(() => resolve()));
 
 /** Runs PRAGMA integrity_check; resolves with 'ok' or the problems it lists. */

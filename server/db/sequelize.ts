@@ -88,43 +88,49 @@ function serializeTransactions(sequelize: Sequelize) {
     tail = tail.then(() => held);
     return ready.then(() => release);
   };
-  const original = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>;
-  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction = async (
+  const original = sequelize.transaction.bind(sequelize) as (
     ...args: unknown[]
-  ) => {
-    const release = await acquire();
-    const managed = typeof args[args.length - 1] === 'function';
-    if (managed) {
-      try {
-        return await original(...args);
-      } finally {
-        release();
-      }
-    }
-    try {
-      const t = (await original(...args)) as Transaction;
-      let released = false;
-      const once = () => {
-        if (!released) {
-          released = true;
+  ) => Promise<unknown>;
+  (sequelize as unknown as { transaction: (...args: unknown[]) => Promise<unknown> }).transaction =
+    async (...args: unknown[]) => {
+      const release = await acquire();
+      const managed = typeof args[args.length - 1] === 'function';
+      if (managed) {
+        try {
+          return await original(...args);
+        } finally {
           release();
         }
-      };
-      const commit = t.commit.bind(t);
-      const rollback = t.rollback.bind(t);
-      t.commit = () => commit().finally(once);
-      t.rollback = () => rollback().finally(once);
-      return t;
-    } catch (err) {
-      release();
-      throw err;
-    }
-  };
+      }
+      try {
+        const t = (await original(...args)) as Transaction;
+        let released = false;
+        const once = () => {
+          if (!released) {
+            released = true;
+            release();
+          }
+        };
+        const commit = t.commit.bind(t);
+        const rollback = t.rollback.bind(t);
+        t.commit = () => commit().finally(once);
+        t.rollback = () => rollback().finally(once);
+        return t;
+      } catch (err) {
+        release();
+        throw err;
+      }
+    };
 }
 
 /** True for the errors SQLite gives when another connection holds the write lock. */
 export function isBusyError(err: unknown): boolean {
-  const e = err as { original?: { code?: string }; parent?: { code?: string }; code?: string; message?: string };
+  const e = err as {
+    original?: { code?: string };
+    parent?: { code?: string };
+    code?: string;
+    message?: string;
+  };
   const code = e?.original?.code ?? e?.parent?.code ?? e?.code;
   return code === 'SQLITE_BUSY' || code === 'SQLITE_LOCKED' || /SQLITE_BUSY/.test(e?.message ?? '');
 }

@@ -28,7 +28,8 @@ export function allow(access: Access, opts: { production?: boolean } = {}): Mark
   const handler: MarkedHandler = (req: Request, _res: Response, next: NextFunction) => {
     if (access === 'anyone') return next();
     if (access === 'dev') {
-      if (opts.production) return next(new HttpError(404, 'NOT_FOUND', 'Nothing was found at this address.'));
+      if (opts.production)
+        return next(new HttpError(404, 'NOT_FOUND', 'Nothing was found at this address.'));
       return next();
     }
     const user = req.user;
@@ -67,7 +68,11 @@ export interface RouteInfo {
 }
 
 interface Layer {
-  route?: { path: string; methods: Record<string, boolean>; stack: Array<{ handle: MarkedHandler }> };
+  route?: {
+    path: string;
+    methods: Record<string, boolean>;
+    stack: Array<{ handle: MarkedHandler }>;
+  };
   handle: { stack?: Layer[] } & Record<symbol, unknown>;
 }
 
@@ -78,11 +83,17 @@ export function listRoutes(router: { stack: Layer[] }, prefix = ''): RouteInfo[]
     if (layer.route) {
       const first = layer.route.stack[0]?.handle;
       for (const method of Object.keys(layer.route.methods)) {
-        out.push({ method: method.toUpperCase(), path: layer.route.path === '/' && prefix ? prefix : prefix + layer.route.path, access: first?.[ACCESS_MARK] });
+        out.push({
+          method: method.toUpperCase(),
+          path: layer.route.path === '/' && prefix ? prefix : prefix + layer.route.path,
+          access: first?.[ACCESS_MARK],
+        });
       }
     } else if (layer.handle?.stack) {
       const sub = layer.handle[MOUNT_PATH] as string | undefined;
-      out.push(...listRoutes(layer.handle as { stack: Layer[] }, prefix + (sub && sub !== '/' ? sub : '')));
+      out.push(
+        ...listRoutes(layer.handle as { stack: Layer[] }, prefix + (sub && sub !== '/' ? sub : '')),
+      );
     }
   }
   return out;

@@ -51,7 +51,9 @@ export async function startFakeSmtp(port = 0, keep = 500): Promise<FakeSmtp> {
       if (failing) {
         stream.resume();
         stream.on('end', () => {
-          const err = new Error('Mailbox temporarily unavailable') as Error & { responseCode: number };
+          const err = new Error('Mailbox temporarily unavailable') as Error & {
+            responseCode: number;
+          };
           err.responseCode = 451;
           callback(err);
         });
@@ -60,7 +62,8 @@ export async function startFakeSmtp(port = 0, keep = 500): Promise<FakeSmtp> {
       simpleParser(stream)
         .then((parsed) => {
           const headers: Record<string, string> = {};
-          for (const [k, v] of parsed.headers) headers[k] = typeof v === 'string' ? v : JSON.stringify(v);
+          for (const [k, v] of parsed.headers)
+            headers[k] = typeof v === 'string' ? v : JSON.stringify(v);
           messages.unshift({
             id: nextId++,
             to: addressText(parsed.to),
@@ -108,7 +111,9 @@ export async function startFakeSmtp(port = 0, keep = 500): Promise<FakeSmtp> {
           const i = waiters.indexOf(w);
           if (i >= 0) {
             waiters.splice(i, 1);
-            reject(new Error(`Expected ${count} e-mails, got ${nextId - 1} within ${timeoutMs} ms`));
+            reject(
+              new Error(`Expected ${count} e-mails, got ${nextId - 1} within ${timeoutMs} ms`),
+            );
           }
         }, timeoutMs).unref();
       });

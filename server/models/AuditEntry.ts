@@ -7,7 +7,10 @@ import {
   type Sequelize,
 } from 'sequelize';
 
-export class AuditEntry extends Model<InferAttributes<AuditEntry>, InferCreationAttributes<AuditEntry>> {
+export class AuditEntry extends Model<
+  InferAttributes<AuditEntry>,
+  InferCreationAttributes<AuditEntry>
+> {
   declare id: CreationOptional<number>;
   declare actorId: number | null;
   declare action: string;

@@ -9,7 +9,10 @@ import {
 
 export type TokenPurpose = 'verify' | 'reset';
 
-export class AuthToken extends Model<InferAttributes<AuthToken>, InferCreationAttributes<AuthToken>> {
+export class AuthToken extends Model<
+  InferAttributes<AuthToken>,
+  InferCreationAttributes<AuthToken>
+> {
   declare id: CreationOptional<number>;
   declare userId: number;
   declare purpose: TokenPurpose;

@@ -50,7 +50,8 @@ export function authRoutes(ctx: AppContext) {
   r.post('/verify/resend', allow('signedIn'), async (req, res) => {
     const user = await User.findByPk(req.user!.id);
     if (!user) throw new HttpError(401, 'UNAUTHENTICATED', 'Please sign in first.');
-    if (user.emailVerifiedAt) throw new HttpError(409, 'ALREADY_VERIFIED', 'Your e-mail address is already verified.');
+    if (user.emailVerifiedAt)
+      throw new HttpError(409, 'ALREADY_VERIFIED', 'Your e-mail address is already verified.');
     await ctx.sequelize.transaction((t) => accounts.sendVerification(ctx, user, t));
     void ctx.outbox.flush();
     res.status(202).json({ ok: true });
@@ -71,7 +72,9 @@ export function authRoutes(ctx: AppContext) {
   });
 
   r.post('/logout', allow('signedIn'), async (req, res) => {
-    await new Promise<void>((resolve, reject) => req.logOut((err) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      req.logOut((err) => (err ? reject(err) : resolve())),
+    );
     await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
     res.clearCookie('lw.sid');
     res.status(204).end();
@@ -90,7 +93,13 @@ export function authRoutes(ctx: AppContext) {
 
   r.post('/password', allow('signedIn'), async (req, res) => {
     const body = parseWith(changePasswordSchema, req.body);
-    const user = await accounts.changePassword(ctx, req.user!.id, body.currentPassword, body.newPassword, req.sessionID);
+    const user = await accounts.changePassword(
+      ctx,
+      req.user!.id,
+      body.currentPassword,
+      body.newPassword,
+      req.sessionID,
+    );
     // Regenerate this session too: the old id stops working, the member stays signed in.
     await logIn(req, { ...user.toPublic(), sessionEpoch: user.sessionEpoch });
     res.json({ user: user.toPublic(), csrfToken: csrfToken(req) });

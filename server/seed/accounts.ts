@@ -21,15 +21,10 @@ export async function seedAccounts(ctx: AppContext) {
   const { User } = ctx.models;
   const passwordHash = await hashPassword(ctx.config.demoPassword, ctx.config.passwordHashCost);
   const now = new Date();
-  const rows = [
-    ...DEMO_ACCOUNTS,
-    ...COMMUNITY.map((c) => ({ ...c, role: 'member' as Role })),
-  ];
+  const rows = [...DEMO_ACCOUNTS, ...COMMUNITY.map((c) => ({ ...c, role: 'member' as Role }))];
   const users = await ctx.sequelize.transaction(async (transaction) =>
     Promise.all(
-      rows.map((r) =>
-        User.create({ ...r, passwordHash, emailVerifiedAt: now }, { transaction }),
-      ),
+      rows.map((r) => User.create({ ...r, passwordHash, emailVerifiedAt: now }, { transaction })),
     ),
   );
   return Object.fromEntries(users.map((u) => [u.email, u]));

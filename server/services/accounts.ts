@@ -57,11 +57,17 @@ export async function sendVerification(ctx: AppContext, user: User, transaction?
     ],
     action: { label: 'Confirm my address', url },
   });
-  await enqueueMail({ ...mail, to: user.email, kind: 'verify' }, { transaction, domain: domainOf(ctx) });
+  await enqueueMail(
+    { ...mail, to: user.email, kind: 'verify' },
+    { transaction, domain: domainOf(ctx) },
+  );
 }
 
 /** Creates an unverified member account and queues its verification e-mail. */
-export async function register(ctx: AppContext, input: { email: string; displayName: string; password: string }) {
+export async function register(
+  ctx: AppContext,
+  input: { email: string; displayName: string; password: string },
+) {
   await assertAcceptablePassword(input.password, [input.email.split('@')[0], input.displayName]);
   const passwordHash = await hashPassword(input.password, ctx.config.passwordHashCost);
   try {
@@ -71,12 +77,18 @@ export async function register(ctx: AppContext, input: { email: string; displayN
         { transaction },
       );
       await sendVerification(ctx, user, transaction);
-      await audit({ actorId: user.id, action: 'account.register', targetType: 'user', targetId: user.id }, transaction);
+      await audit(
+        { actorId: user.id, action: 'account.register', targetType: 'user', targetId: user.id },
+        transaction,
+      );
       return user;
     });
   } catch (err) {
     if (err instanceof UniqueConstraintError)
-      throw conflict('EMAIL_TAKEN', 'An account with this e-mail address already exists. Sign in, or reset its password.');
+      throw conflict(
+        'EMAIL_TAKEN',
+        'An account with this e-mail address already exists. Sign in, or reset its password.',
+      );
     throw err;
   }
 }
@@ -92,7 +104,10 @@ async function consumeToken<T>(
   then: (user: User, transaction: Transaction) => Promise<T>,
 ): Promise<T> {
   return ctx.sequelize.transaction(async (transaction) => {
-    const row = await AuthToken.findOne({ where: { tokenHash: sha256(token), purpose }, transaction });
+    const row = await AuthToken.findOne({
+      where: { tokenHash: sha256(token), purpose },
+      transaction,
+    });
     if (!row || row.usedAt || row.expiresAt.getTime() < Date.now()) {
       throw new HttpError(
         400,
@@ -104,7 +119,12 @@ async function consumeToken<T>(
     }
     await row.update({ usedAt: new Date() }, { transaction });
     const user = await User.findByPk(row.userId, { transaction });
-    if (!user) throw new HttpError(400, 'TOKEN_INVALID', 'This link belongs to an account that no longer exists.');
+    if (!user)
+      throw new HttpError(
+        400,
+        'TOKEN_INVALID',
+        'This link belongs to an account that no longer exists.',
+      );
     return then(user, transaction);
   });
 }
@@ -113,7 +133,10 @@ async function consumeToken<T>(
 export async function verifyEmail(ctx: AppContext, token: string) {
   return consumeToken(ctx, token, 'verify', async (user, transaction) => {
     if (!user.emailVerifiedAt) await user.update({ emailVerifiedAt: new Date() }, { transaction });
-    await audit({ actorId: user.id, action: 'account.verify', targetType: 'user', targetId: user.id }, transaction);
+    await audit(
+      { actorId: user.id, action: 'account.verify', targetType: 'user', targetId: user.id },
+      transaction,
+    );
     return user;
   });
 }
@@ -133,15 +156,21 @@ export async function requestPasswordReset(ctx: AppContext, email: string) {
       ],
       action: { label: 'Choose a new password', url },
     });
-    await enqueueMail({ ...mail, to: user.email, kind: 'reset' }, { transaction, domain: domainOf(ctx) });
+    await enqueueMail(
+      { ...mail, to: user.email, kind: 'reset' },
+      { transaction, domain: domainOf(ctx) },
+    );
   });
 }
 
 /** Sets a new password from a reset link and ends every session of the account. */
 export async function confirmPasswordReset(ctx: AppContext, token: string, password: string) {
-  const tokenRow = await AuthToken.findOne({ where: { tokenHash: sha256(token), purpose: 'reset' } });
+  const tokenRow = await AuthToken.findOne({
+    where: { tokenHash: sha256(token), purpose: 'reset' },
+  });
   const owner = tokenRow ? await User.findByPk(tokenRow.userId) : null;
-  if (owner) await assertAcceptablePassword(password, [owner.email.split('@')[0], owner.displayName]);
+  if (owner)
+    await assertAcceptablePassword(password, [owner.email.split('@')[0], owner.displayName]);
   const passwordHash = await hashPassword(password, ctx.config.passwordHashCost);
   const user = await consumeToken(ctx, token, 'reset', async (u, transaction) => {
     await u.update(
@@ -153,7 +182,10 @@ export async function confirmPasswordReset(ctx: AppContext, token: string, passw
       },
       { transaction },
     );
-    await audit({ actorId: u.id, action: 'account.password-reset', targetType: 'user', targetId: u.id }, transaction);
+    await audit(
+      { actorId: u.id, action: 'account.password-reset', targetType: 'user', targetId: u.id },
+      transaction,
+    );
     return u;
   });
   await ctx.sessionStore.destroyForUser(user.id);
@@ -161,7 +193,11 @@ export async function confirmPasswordReset(ctx: AppContext, token: string, passw
 }
 
 /** The account for an e-mail and password, or null for any bad pair. */
-export async function authenticate(ctx: AppContext, email: string, password: string): Promise<User | null> {
+export async function authenticate(
+  ctx: AppContext,
+  email: string,
+  password: string,
+): Promise<User | null> {
   const user = await User.findOne({ where: { email } });
   if (!user) {
     // Spend the same time as a real check, so timing does not reveal which accounts exist.
@@ -175,18 +211,31 @@ export async function authenticate(ctx: AppContext, email: string, password: str
 let dummyHash: Promise<string> | undefined;
 
 /** Changes the password after checking the current one; other sessions end. */
-export async function changePassword(ctx: AppContext, userId: number, current: string, next: string, keepSid?: string) {
+export async function changePassword(
+  ctx: AppContext,
+  userId: number,
+  current: string,
+  next: string,
+  keepSid?: string,
+) {
   const user = await User.findByPk(userId);
   if (!user) throw new HttpError(401, 'UNAUTHENTICATED', 'Please sign in first.');
   if (!(await verifyPassword(current, user.passwordHash)))
-    throw badRequest('The current password is not right.', [{ path: 'currentPassword', message: 'The current password is not right.' }]);
+    throw badRequest('The current password is not right.', [
+      { path: 'currentPassword', message: 'The current password is not right.' },
+    ]);
   await assertAcceptablePassword(next, [user.email.split('@')[0], user.displayName]);
   await user.update({
     passwordHash: await hashPassword(next, ctx.config.passwordHashCost),
     sessionEpoch: user.sessionEpoch + 1,
   });
   await ctx.sessionStore.destroyForUser(user.id, keepSid);
-  await audit({ actorId: user.id, action: 'account.password-change', targetType: 'user', targetId: user.id });
+  await audit({
+    actorId: user.id,
+    action: 'account.password-change',
+    targetType: 'user',
+    targetId: user.id,
+  });
   return user;
 }
 
@@ -199,5 +248,7 @@ export async function updateProfile(userId: number, displayName: string) {
 
 /** Removes tokens that expired more than a day ago. */
 export async function pruneTokens() {
-  await AuthToken.destroy({ where: { expiresAt: { [Op.lt]: new Date(Date.now() - 24 * 3600 * 1000) } } });
+  await AuthToken.destroy({
+    where: { expiresAt: { [Op.lt]: new Date(Date.now() - 24 * 3600 * 1000) } },
+  });
 }

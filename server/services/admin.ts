@@ -18,12 +18,22 @@ export async function changeRole(ctx: AppContext, actorId: number, userId: numbe
     const target = await User.findByPk(userId, { transaction });
     if (!target) throw notFound('There is no member with this id.');
     if (target.id === actorId && role !== 'admin')
-      throw new HttpError(409, 'SELF_DEMOTION', 'You cannot take the admin role from yourself; ask another admin.');
+      throw new HttpError(
+        409,
+        'SELF_DEMOTION',
+        'You cannot take the admin role from yourself; ask another admin.',
+      );
     const from = target.role;
     if (from === role) return target;
     await target.update({ role, sessionEpoch: target.sessionEpoch + 1 }, { transaction });
     await audit(
-      { actorId, action: 'user.role-change', targetType: 'user', targetId: target.id, details: { from, to: role } },
+      {
+        actorId,
+        action: 'user.role-change',
+        targetType: 'user',
+        targetId: target.id,
+        details: { from, to: role },
+      },
       transaction,
     );
     return target;

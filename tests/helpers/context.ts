@@ -27,7 +27,14 @@ export async function createTestEnv(
 ): Promise<TestEnv> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lw-test-'));
   const config = loadConfig(
-    { NODE_ENV: 'test', DATA_DIR: dataDir, DEV_SMTP_PORT: '0', DEMO_PASSWORD: TEST_PASSWORD, LOG_LEVEL: process.env.LOG_LEVEL ?? 'silent', ...opts.env },
+    {
+      NODE_ENV: 'test',
+      DATA_DIR: dataDir,
+      DEV_SMTP_PORT: '0',
+      DEMO_PASSWORD: TEST_PASSWORD,
+      LOG_LEVEL: process.env.LOG_LEVEL ?? 'silent',
+      ...opts.env,
+    },
     {
       seedDemo: opts.seedDemo ?? false,
       passwordHashCost: TEST_HASH_COST,
@@ -84,13 +91,22 @@ export class Client {
     return this.agent.get(url);
   }
   post(url: string, body?: object) {
-    return this.agent.post(url).set('X-CSRF-Token', this.csrf).send(body ?? {});
+    return this.agent
+      .post(url)
+      .set('X-CSRF-Token', this.csrf)
+      .send(body ?? {});
   }
   put(url: string, body?: object) {
-    return this.agent.put(url).set('X-CSRF-Token', this.csrf).send(body ?? {});
+    return this.agent
+      .put(url)
+      .set('X-CSRF-Token', this.csrf)
+      .send(body ?? {});
   }
   patch(url: string, body?: object) {
-    return this.agent.patch(url).set('X-CSRF-Token', this.csrf).send(body ?? {});
+    return this.agent
+      .patch(url)
+      .set('X-CSRF-Token', this.csrf)
+      .send(body ?? {});
   }
   delete(url: string) {
     return this.agent.delete(url).set('X-CSRF-Token', this.csrf);
@@ -100,7 +116,8 @@ export class Client {
   async signIn(email: string, password = TEST_PASSWORD) {
     if (!this.csrf) await this.token();
     const res = await this.post('/api/auth/login', { email, password });
-    if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
+    if (res.status !== 200)
+      throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
     if (res.body.csrfToken) this.csrf = res.body.csrfToken;
     return res.body.user;
   }

@@ -22,7 +22,15 @@ const example = {
     B: { label: '7-cavity body harness plug', cavityCount: 7, sealed: false },
   },
   circuits: [
-    { a: ['1'], b: ['1'], role: 'motor +', size: '18 AWG', color: 'RD/WH', lengthMm: 250, currentA: 3 },
+    {
+      a: ['1'],
+      b: ['1'],
+      role: 'motor +',
+      size: '18 AWG',
+      color: 'RD/WH',
+      lengthMm: 250,
+      currentA: 3,
+    },
     { a: ['7'], b: [], termination: 'ring terminal to engine ground' },
   ],
 };
@@ -37,12 +45,19 @@ describe('POST /api/adapters/check', () => {
       circuits: 2,
       splices: 0,
       ends: {
-        A: { cavities: 10, used: 2, unused: ['2', '3', '4', '5', '6', '8', '9', '10'], plugsNeeded: 8 },
+        A: {
+          cavities: 10,
+          used: 2,
+          unused: ['2', '3', '4', '5', '6', '8', '9', '10'],
+          plugsNeeded: 8,
+        },
         B: { cavities: 7, used: 1, unused: ['2', '3', '4', '5', '6', '7'], plugsNeeded: 0 },
       },
       landed: { A: 2, B: 1 },
     });
-    expect(res.body.warnings).toContainEqual(expect.objectContaining({ code: 'TERMINATED', circuit: 1, end: 'B' }));
+    expect(res.body.warnings).toContainEqual(
+      expect.objectContaining({ code: 'TERMINATED', circuit: 1, end: 'B' }),
+    );
     expect(res.headers['set-cookie']).toBeUndefined();
   });
 

@@ -1,11 +1,20 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { Client, clientAs, createTestEnv, makeUser, TEST_PASSWORD, type TestEnv } from '../helpers/context';
+import {
+  Client,
+  clientAs,
+  createTestEnv,
+  makeUser,
+  TEST_PASSWORD,
+  type TestEnv,
+} from '../helpers/context';
 
 let env: TestEnv;
 
 beforeAll(async () => {
-  env = await createTestEnv({ config: { throttle: { perAccount: 3, perIp: 50, windowMs: 60_000 } } });
+  env = await createTestEnv({
+    config: { throttle: { perAccount: 3, perIp: 50, windowMs: 60_000 } },
+  });
 });
 afterAll(() => env.close());
 
@@ -64,7 +73,9 @@ describe('CSRF protection', () => {
   it('answers 403 when the token is missing', async () => {
     const agent = request.agent(env.app);
     await agent.get('/api/auth/csrf');
-    const res = await agent.post('/api/auth/login').send({ email: 'a@example.test', password: 'x' });
+    const res = await agent
+      .post('/api/auth/login')
+      .send({ email: 'a@example.test', password: 'x' });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('CSRF_INVALID');
   });
@@ -82,8 +93,8 @@ describe('CSRF protection', () => {
   it('answers 403 for a request the browser marks cross-site, even with the token', async () => {
     const c = new Client(env.app);
     await c.token();
-    const res = await c
-      .agent.post('/api/auth/login')
+    const res = await c.agent
+      .post('/api/auth/login')
       .set('X-CSRF-Token', c.csrf)
       .set('Sec-Fetch-Site', 'cross-site')
       .send({ email: 'a@example.test', password: 'x' });
@@ -117,13 +128,20 @@ describe('POST /api/auth/register', () => {
     const c = new Client(env.app);
     await c.token();
     await c.post('/api/auth/register', newUser('taken'));
-    const res = await c.post('/api/auth/register', { ...newUser('taken'), email: 'TAKEN@example.test' });
+    const res = await c.post('/api/auth/register', {
+      ...newUser('taken'),
+      email: 'TAKEN@example.test',
+    });
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('EMAIL_TAKEN');
   });
 
   it.each([
-    ['a missing e-mail', { displayName: 'No Mail', password: 'crimp-and-solder-77' }, /email.*required/i],
+    [
+      'a missing e-mail',
+      { displayName: 'No Mail', password: 'crimp-and-solder-77' },
+      /email.*required/i,
+    ],
     ['a malformed e-mail', { ...newUser('x'), email: 'not-an-address' }, /e-mail/i],
     ['a wrong-typed display name', { ...newUser('y'), displayName: 42 }, /displayName/],
     ['an unknown field', { ...newUser('z'), role: 'admin' }, /not expected.*role/],
@@ -153,7 +171,10 @@ describe('POST /api/auth/register', () => {
   it('refuses a 2 MB JSON body with 413 and a sentence', async () => {
     const c = new Client(env.app);
     await c.token();
-    const res = await c.post('/api/auth/register', { ...newUser('big'), displayName: 'x'.repeat(2 * 1024 * 1024) });
+    const res = await c.post('/api/auth/register', {
+      ...newUser('big'),
+      displayName: 'x'.repeat(2 * 1024 * 1024),
+    });
     expect(res.status).toBe(413);
     expect(res.body.error.message).toMatch(/too large/);
   });
@@ -186,7 +207,10 @@ describe('POST /api/auth/verify', () => {
     await c.token();
     await c.post('/api/auth/register', newUser('ver2'));
     const [mail] = await mailFor('ver2@example.test');
-    await env.ctx.models.AuthToken.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { purpose: 'verify' } });
+    await env.ctx.models.AuthToken.update(
+      { expiresAt: new Date(Date.now() - 1000) },
+      { where: { purpose: 'verify' } },
+    );
     const res = await c.post('/api/auth/verify', { token: linkToken(mail.text, '/verify-email') });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/expired/);
@@ -231,8 +255,14 @@ describe('POST /api/auth/login', () => {
     const user = await makeUser(env);
     const c = new Client(env.app);
     await c.token();
-    const wrong = await c.post('/api/auth/login', { email: user.email, password: 'not-the-password' });
-    const unknown = await c.post('/api/auth/login', { email: 'nobody@example.test', password: 'not-the-password' });
+    const wrong = await c.post('/api/auth/login', {
+      email: user.email,
+      password: 'not-the-password',
+    });
+    const unknown = await c.post('/api/auth/login', {
+      email: 'nobody@example.test',
+      password: 'not-the-password',
+    });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body).toEqual(unknown.body);
@@ -243,7 +273,10 @@ describe('POST /api/auth/login', () => {
     const c = new Client(env.app);
     await c.token();
     for (let i = 0; i < 3; i++) {
-      const r = await c.post('/api/auth/login', { email: user.email, password: 'wrong-password-1' });
+      const r = await c.post('/api/auth/login', {
+        email: user.email,
+        password: 'wrong-password-1',
+      });
       expect(r.status).toBe(401);
     }
     const res = await c.post('/api/auth/login', { email: user.email, password: TEST_PASSWORD });
@@ -302,9 +335,15 @@ describe('POST /api/auth/password-reset/confirm', () => {
     await c.post('/api/auth/password-reset', { email: user.email });
     const [mail] = await mailFor(user.email);
     const token = linkToken(mail.text, '/reset-password');
-    const res = await c.post('/api/auth/password-reset/confirm', { token, password: 'new-loom-password-5' });
+    const res = await c.post('/api/auth/password-reset/confirm', {
+      token,
+      password: 'new-loom-password-5',
+    });
     expect(res.status).toBe(200);
-    const again = await c.post('/api/auth/password-reset/confirm', { token, password: 'other-loom-password-6' });
+    const again = await c.post('/api/auth/password-reset/confirm', {
+      token,
+      password: 'other-loom-password-6',
+    });
     expect(again.status).toBe(400);
     expect((await old.get('/api/auth/me')).status).toBe(401);
     const fresh = new Client(env.app);
@@ -361,7 +400,9 @@ describe('GET /api/admin/users', () => {
   it('answers 401 signed out, 403 for a member or moderator, 200 with a list for an admin', async () => {
     expect((await request(env.app).get('/api/admin/users')).status).toBe(401);
     expect((await (await clientAs(env, 'member')).client.get('/api/admin/users')).status).toBe(403);
-    expect((await (await clientAs(env, 'moderator')).client.get('/api/admin/users')).status).toBe(403);
+    expect((await (await clientAs(env, 'moderator')).client.get('/api/admin/users')).status).toBe(
+      403,
+    );
     const res = await (await clientAs(env, 'admin')).client.get('/api/admin/users');
     expect(res.status).toBe(200);
     expect(Array.isArray(res.body)).toBe(true);
@@ -381,9 +422,13 @@ describe('PATCH /api/admin/users/:id', () => {
     const audit = await admin.get('/api/admin/audit');
     expect(audit.status).toBe(200);
     const entry = audit.body.items.find(
-      (i: { action: string; targetId: string }) => i.action === 'user.role-change' && i.targetId === String(user!.id),
+      (i: { action: string; targetId: string }) =>
+        i.action === 'user.role-change' && i.targetId === String(user!.id),
     );
-    expect(entry).toMatchObject({ actor: { id: adminUser!.id }, details: { from: 'member', to: 'moderator' } });
+    expect(entry).toMatchObject({
+      actor: { id: adminUser!.id },
+      details: { from: 'member', to: 'moderator' },
+    });
   });
 
   it('answers 400 for a role that does not exist and 404 for an unknown member', async () => {
@@ -404,8 +449,12 @@ describe('GET /api/dev/mail', () => {
     const res = await request(env.app).get('/api/dev/mail');
     expect(res.status).toBe(200);
     const ours = res.body.filter((m: { to: string }) => /mbox[12]/.test(m.to));
-    expect(ours.map((m: { to: string }) => m.to)).toEqual(['mbox2@example.test', 'mbox1@example.test']);
-    for (const key of ['to', 'subject', 'text', 'html', 'date']) expect(ours[0]).toHaveProperty(key);
+    expect(ours.map((m: { to: string }) => m.to)).toEqual([
+      'mbox2@example.test',
+      'mbox1@example.test',
+    ]);
+    for (const key of ['to', 'subject', 'text', 'html', 'date'])
+      expect(ours[0]).toHaveProperty(key);
   });
 });
 

@@ -46,7 +46,13 @@ describe('SQLite connections', () => {
         env.ctx.sequelize.transaction(async (transaction) => {
           const n = await AuditEntry.count({ transaction });
           await AuditEntry.create(
-            { actorId: null, action: 'test.concurrent', targetType: 'test', targetId: String(i), details: { n } },
+            {
+              actorId: null,
+              action: 'test.concurrent',
+              targetType: 'test',
+              targetId: String(i),
+              details: { n },
+            },
             { transaction },
           );
         }),
@@ -64,7 +70,13 @@ describe('backup and restore', () => {
     let written = 0;
     const load = (async () => {
       while (writing) {
-        await AuditEntry.create({ actorId: null, action: 'test.load', targetType: 'test', targetId: null, details: null });
+        await AuditEntry.create({
+          actorId: null,
+          action: 'test.load',
+          targetType: 'test',
+          targetId: null,
+          details: null,
+        });
         written++;
       }
     })();
@@ -83,8 +95,12 @@ describe('backup and restore', () => {
     await restoreDatabase(file, target);
     expect(await integrityCheck(target)).toBe('ok');
     const restored = createSequelize({ file: target });
-    const [row] = await restored.query<{ n: number }>('SELECT COUNT(*) AS n FROM audit_log', { type: QueryTypes.SELECT });
-    const [users] = await restored.query<{ n: number }>('SELECT COUNT(*) AS n FROM users', { type: QueryTypes.SELECT });
+    const [row] = await restored.query<{ n: number }>('SELECT COUNT(*) AS n FROM audit_log', {
+      type: QueryTypes.SELECT,
+    });
+    const [users] = await restored.query<{ n: number }>('SELECT COUNT(*) AS n FROM users', {
+      type: QueryTypes.SELECT,
+    });
     await restored.close();
     const liveCount = await AuditEntry.count();
     // The copy is one consistent snapshot taken during the load: more than before it, at most all.
@@ -104,7 +120,9 @@ describe('backup and restore', () => {
         { actorId: null, action: 'test.hold', targetType: 'test', targetId: null, details: null },
         { transaction: t },
       );
-      await expect(restoreDatabase(file, env.ctx.config.databaseFile)).rejects.toThrow(/Stop the server/);
+      await expect(restoreDatabase(file, env.ctx.config.databaseFile)).rejects.toThrow(
+        /Stop the server/,
+      );
     } finally {
       await t.rollback();
     }

@@ -6,8 +6,12 @@ import { createTestEnv, type TestEnv } from '../helpers/context';
 
 describe('configuration', () => {
   it('refuses to start in production without SESSION_SECRET, with a sentence', () => {
-    expect(() => loadConfig({ NODE_ENV: 'production', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(ConfigError);
-    expect(() => loadConfig({ NODE_ENV: 'production', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(/SESSION_SECRET/);
+    expect(() => loadConfig({ NODE_ENV: 'production', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(
+      ConfigError,
+    );
+    expect(() => loadConfig({ NODE_ENV: 'production', SMTP_URL: 'smtp://127.0.0.1:25' })).toThrow(
+      /SESSION_SECRET/,
+    );
   });
 
   it('names the bad variable', () => {

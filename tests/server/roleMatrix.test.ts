@@ -105,17 +105,22 @@ afterAll(() => env.close());
 
 describe('the role matrix', () => {
   it('has an entry for every registered /api route, and each route declares the same access', () => {
-    const routes = listRoutes((env.app as unknown as { router: { stack: never[] } }).router).filter((r) =>
-      r.path.startsWith('/api/'),
+    const routes = listRoutes((env.app as unknown as { router: { stack: never[] } }).router).filter(
+      (r) => r.path.startsWith('/api/'),
     );
     expect(routes.length).toBeGreaterThan(10);
-    const missing = routes.filter((r) => !(`${r.method} ${r.path}` in MATRIX)).map((r) => `${r.method} ${r.path}`);
+    const missing = routes
+      .filter((r) => !(`${r.method} ${r.path}` in MATRIX))
+      .map((r) => `${r.method} ${r.path}`);
     expect(missing, 'routes with no entry in the role matrix').toEqual([]);
     const undeclared = routes.filter((r) => !r.access).map((r) => `${r.method} ${r.path}`);
     expect(undeclared, 'routes whose first handler is not allow(...)').toEqual([]);
     const differing = routes
       .filter((r) => MATRIX[`${r.method} ${r.path}`] !== r.access)
-      .map((r) => `${r.method} ${r.path}: route says ${r.access}, matrix says ${MATRIX[`${r.method} ${r.path}`]}`);
+      .map(
+        (r) =>
+          `${r.method} ${r.path}: route says ${r.access}, matrix says ${MATRIX[`${r.method} ${r.path}`]}`,
+      );
     expect(differing).toEqual([]);
     const registered = new Set(routes.map((r) => `${r.method} ${r.path}`));
     const stale = Object.keys(MATRIX).filter((k) => !registered.has(k));
@@ -130,7 +135,11 @@ describe('the role matrix', () => {
         if (passes(access, who)) continue;
         const c = clients[who];
         const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
-        const res = await (m === 'get' ? c.get(url) : m === 'delete' ? c.delete(url) : c[m](url, {}));
+        const res = await (m === 'get'
+          ? c.get(url)
+          : m === 'delete'
+            ? c.delete(url)
+            : c[m](url, {}));
         const expected = who === 'anonymous' ? 401 : 403;
         expect(res.status, `${who} on ${key}`).toBe(expected);
         expect(res.body.error?.message, `${who} on ${key} gets a sentence`).toMatch(/\w+ \w+/);

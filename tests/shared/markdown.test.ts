@@ -8,11 +8,27 @@ function executableParts(html: string): string[] {
   const found: string[] = [];
   for (const el of doc.body.querySelectorAll('*')) {
     const tag = el.tagName.toLowerCase();
-    if (['script', 'iframe', 'svg', 'math', 'object', 'embed', 'style', 'form', 'meta', 'base'].includes(tag))
+    if (
+      [
+        'script',
+        'iframe',
+        'svg',
+        'math',
+        'object',
+        'embed',
+        'style',
+        'form',
+        'meta',
+        'base',
+      ].includes(tag)
+    )
       found.push(`<${tag}>`);
     for (const attr of el.attributes) {
       if (/^on/i.test(attr.name)) found.push(`${tag}[${attr.name}]`);
-      if (['href', 'src', 'action', 'xlink:href'].includes(attr.name) && !/^(https?:\/\/|\/(?!\/)|#)/i.test(attr.value))
+      if (
+        ['href', 'src', 'action', 'xlink:href'].includes(attr.name) &&
+        !/^(https?:\/\/|\/(?!\/)|#)/i.test(attr.value)
+      )
         found.push(`${tag}[${attr.name}=${attr.value}]`);
     }
   }
