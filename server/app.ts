@@ -10,6 +10,7 @@ import { HttpError } from './errors';
 import { isBusyError } from './db/sequelize';
 import { csrfProtection } from './http/csrf';
 import { refuseNul } from './http/nul';
+import { cachedPublicReads } from './http/publicReads';
 import { mount } from './http/access';
 import { configurePassport } from './auth/passport';
 import { apiRoutes, CSRF_EXEMPT } from './routes';
@@ -53,6 +54,7 @@ export function createApp(ctx: AppContext, opts: { clientDir?: string } = {}): E
       crossOriginEmbedderPolicy: false,
     }),
   );
+  app.use(cachedPublicReads(ctx, SESSION_COOKIE));
   app.use(
     pinoHttp({
       logger,
