@@ -1,3 +1,5 @@
+import { JSDOM } from 'jsdom';
+
 /** Script tags, event handlers, javascript: and data: links, SVG and MathML tricks, broken tags, and our own syntax abused. */
 export const XSS_PAYLOADS = [
   '<script>alert(1)</script>',
@@ -40,3 +42,39 @@ export const XSS_PAYLOADS = [
   '[[sheet:javascript:alert(1)]]',
   '[click](image:1" onclick="alert(1))',
 ];
+
+/** Everything in rendered HTML that could run script: elements, handlers, script URLs. */
+export function executableParts(html: string): string[] {
+  const doc = new JSDOM(`<body>${html}</body>`).window.document;
+  const found: string[] = [];
+  for (const el of doc.body.querySelectorAll('*')) {
+    const tag = el.tagName.toLowerCase();
+    if (
+      [
+        'script',
+        'iframe',
+        'svg',
+        'math',
+        'object',
+        'embed',
+        'style',
+        'form',
+        'meta',
+        'base',
+        'link',
+        'foreignobject',
+      ].includes(tag)
+    )
+      found.push(`<${tag}>`);
+    for (const attr of el.attributes) {
+      if (/^on/i.test(attr.name)) found.push(`${tag}[${attr.name}]`);
+      if (attr.name === 'style') found.push(`${tag}[style]`);
+      if (
+        ['href', 'src', 'action', 'xlink:href', 'formaction', 'srcset'].includes(attr.name) &&
+        !/^(https?:\/\/|\/(?!\/)|#)/i.test(attr.value)
+      )
+        found.push(`${tag}[${attr.name}=${attr.value}]`);
+    }
+  }
+  return found;
+}

@@ -1,8 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { JSDOM } from 'jsdom';
 import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/context';
 import { png } from '../helpers/images';
-import { XSS_PAYLOADS } from '../helpers/xssPayloads';
+import { XSS_PAYLOADS, executableParts } from '../helpers/xssPayloads';
 import { emptyWire } from '../../shared/schemas/writeup';
 import { writeupMarkdown } from '../../shared/writeup/markdown';
 import { serverMarkdown } from '../../server/markdown';
@@ -278,42 +277,6 @@ describe('POST /api/review/:revisionId/return with image notes', { timeout: 60_0
     expect(row.latest.note).toContain('Image 2: A number plate');
   });
 });
-
-/** Everything in rendered HTML that could run script: elements, handlers, script URLs. */
-function executableParts(html: string): string[] {
-  const doc = new JSDOM(`<body>${html}</body>`).window.document;
-  const found: string[] = [];
-  for (const el of doc.body.querySelectorAll('*')) {
-    const tag = el.tagName.toLowerCase();
-    if (
-      [
-        'script',
-        'iframe',
-        'svg',
-        'math',
-        'object',
-        'embed',
-        'style',
-        'form',
-        'meta',
-        'base',
-        'link',
-        'foreignobject',
-      ].includes(tag)
-    )
-      found.push(`<${tag}>`);
-    for (const attr of el.attributes) {
-      if (/^on/i.test(attr.name)) found.push(`${tag}[${attr.name}]`);
-      if (attr.name === 'style') found.push(`${tag}[style]`);
-      if (
-        ['href', 'src', 'action', 'xlink:href', 'formaction', 'srcset'].includes(attr.name) &&
-        !/^(https?:\/\/|\/(?!\/)|#)/i.test(attr.value)
-      )
-        found.push(`${tag}[${attr.name}=${attr.value}]`);
-    }
-  }
-  return found;
-}
 
 describe('write-up Markdown on the server', () => {
   it.each(XSS_PAYLOADS)('renders nothing executable from %s', (payload) => {

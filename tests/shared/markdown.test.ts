@@ -1,39 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { JSDOM } from 'jsdom';
+import { executableParts } from '../helpers/xssPayloads';
 import { serverMarkdown } from '../../server/markdown';
-
-/** Everything in rendered HTML that could run script: elements, handlers, script URLs. */
-function executableParts(html: string): string[] {
-  const doc = new JSDOM(`<body>${html}</body>`).window.document;
-  const found: string[] = [];
-  for (const el of doc.body.querySelectorAll('*')) {
-    const tag = el.tagName.toLowerCase();
-    if (
-      [
-        'script',
-        'iframe',
-        'svg',
-        'math',
-        'object',
-        'embed',
-        'style',
-        'form',
-        'meta',
-        'base',
-      ].includes(tag)
-    )
-      found.push(`<${tag}>`);
-    for (const attr of el.attributes) {
-      if (/^on/i.test(attr.name)) found.push(`${tag}[${attr.name}]`);
-      if (
-        ['href', 'src', 'action', 'xlink:href'].includes(attr.name) &&
-        !/^(https?:\/\/|\/(?!\/)|#)/i.test(attr.value)
-      )
-        found.push(`${tag}[${attr.name}=${attr.value}]`);
-    }
-  }
-  return found;
-}
 
 const md = serverMarkdown();
 
