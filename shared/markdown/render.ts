@@ -65,9 +65,6 @@ export const ALLOWED_ATTR = [
 /** http(s) links, and links to this site's own pages (a path, not `//host`). */
 export const SAFE_URL = /^(?:https?:\/\/|\/(?!\/)|#)/i;
 
-/** Markdown longer than this is refused rather than rendered (keeps rendering fast). */
-export const MAX_MARKDOWN_LENGTH = MARKDOWN_BUDGET.maxLength;
-
 export interface RenderOptions {
   /** Adds syntax of a document kind (caution blocks, image references, sheet cards). */
   plugins?: Array<(md: MarkdownIt) => void>;

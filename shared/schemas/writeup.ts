@@ -8,9 +8,10 @@
  */
 import { z } from 'zod';
 import { annotationsSchema } from './annotations';
+import { MARKDOWN_BUDGET } from '../markdown/budget';
 
-/** The body may be as long as the renderer accepts (MAX_MARKDOWN_LENGTH), and no longer. */
-export const MAX_WRITEUP_BODY = 100_000;
+/** The body may be as long as the renderer accepts, and no longer. */
+export const MAX_WRITEUP_BODY = MARKDOWN_BUDGET.maxLength;
 export const MAX_WRITEUP_IMAGES = 20;
 export const MAX_WIRE_RUN_WIRES = 100;
 export const MAX_PART_ITEMS = 200;
