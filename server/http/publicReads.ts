@@ -5,7 +5,6 @@ import { parseQuery } from './query';
 import { SEARCH_PARAMS, searchQuerySchema } from '../../shared/schemas/search';
 import { searchPrepared } from '../services/search';
 import { publishedView } from '../services/publicViews';
-import { getDocumentView } from '../services/documents';
 
 const SHEET = /^\/api\/documents\/([^/]+)$/;
 
@@ -29,9 +28,7 @@ export function cachedPublicReads(ctx: AppContext, sessionCookie: string) {
         const m = SHEET.exec(req.path);
         if (!m || Object.keys(req.query as object).length) return next();
         const idOrSlug = decodeURIComponent(m[1]);
-        answer = await publishedView(ctx, idOrSlug, () =>
-          getDocumentView(ctx, undefined, idOrSlug),
-        );
+        answer = await publishedView(ctx, idOrSlug);
       }
     } catch {
       return next();

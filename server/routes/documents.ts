@@ -33,9 +33,7 @@ export function documentRoutes(ctx: AppContext) {
     const idOrSlug = String(req.params.idOrSlug);
     // Without ?revision everyone sees the same published view, so it can be kept.
     if (revision === undefined) {
-      const view = await publishedView(ctx, idOrSlug, () =>
-        documents.getDocumentView(ctx, req.user, idOrSlug),
-      );
+      const view = await publishedView(ctx, idOrSlug);
       sendPrepared(res, view);
       return;
     }

@@ -12,6 +12,7 @@ import type { Sequelize } from 'sequelize';
 import type { AppContext } from '../context';
 import { prepare, type Prepared } from '../http/prepared';
 import { indexGeneration } from './search';
+import { getDocumentView } from './documents';
 
 const VIEW_TTL_MS = 30_000;
 const MAX_VIEWS = 1000;
@@ -33,13 +34,11 @@ function storeOf(sequelize: Sequelize) {
 
 /**
  * The published view of `idOrSlug`, serialised, from memory when it is still current,
- * otherwise from `build` (whose errors, such as a 404, pass through and are not kept).
+ * otherwise built (whose errors, such as a 404, pass through and are not kept). The
+ * published view is the same for every reader, so it is built as a reader sees it.
  */
-export async function publishedView(
-  ctx: AppContext,
-  idOrSlug: string,
-  build: () => Promise<unknown>,
-): Promise<Prepared> {
+export async function publishedView(ctx: AppContext, idOrSlug: string): Promise<Prepared> {
+  const build = () => getDocumentView(ctx, undefined, idOrSlug);
   if (!ctx.config.answerCache) return prepare(await build());
   const store = storeOf(ctx.sequelize);
   const key = idOrSlug.toLowerCase();
