@@ -25,11 +25,6 @@ export function asWriteup(content: Content): WriteupContent | null {
   return parsed.success ? parsed.data : null;
 }
 
-/** The words of a write-up's body without markup: for search and for summaries. */
-export function writeupPlainText(body: string): string {
-  return bodyPlainText(body);
-}
-
 /** How much of the body a summary reads: a line of 160 characters never needs more. */
 const SUMMARY_SOURCE_CHARS = 4_000;
 
@@ -37,7 +32,7 @@ const SUMMARY_SOURCE_CHARS = 4_000;
 export function writeupSearchText(content: Content): string {
   const w = asWriteup(content);
   if (!w) return '';
-  const parts = [w.summary ?? '', writeupPlainText(w.body)];
+  const parts = [w.summary ?? '', bodyPlainText(w.body)];
   for (const img of w.images) {
     parts.push(img.caption);
     for (const a of img.annotations) if ('text' in a && a.text) parts.push(a.text);

@@ -3,13 +3,9 @@ import { clientAs, createTestEnv, type Client, type TestEnv } from '../helpers/c
 import { png } from '../helpers/images';
 import { XSS_PAYLOADS, executableParts } from '../helpers/xssPayloads';
 import { emptyWire } from '../../shared/schemas/writeup';
-import { writeupMarkdown } from '../../shared/writeup/markdown';
+import { bodyPlainText, writeupMarkdown } from '../../shared/writeup/markdown';
 import { serverMarkdown } from '../../server/markdown';
-import {
-  writeupPlainText,
-  writeupSearchText,
-  writeupSummary,
-} from '../../server/services/writeups';
+import { writeupSearchText, writeupSummary } from '../../server/services/writeups';
 
 /** The write-up syntax sanitised by the server's DOMPurify, as the client renders it. */
 const writeupHtml = serverMarkdown({ plugins: [writeupMarkdown] });
@@ -295,12 +291,10 @@ describe('write-up Markdown on the server', () => {
 
   it('gives plain text for search and summaries, without markup', () => {
     expect(
-      writeupPlainText(
-        '# Steps\n\n:::caution fuel\nRelieve it.\n:::\n\nCut **one** wire. <b>x</b>',
-      ),
+      bodyPlainText('# Steps\n\n:::caution fuel\nRelieve it.\n:::\n\nCut **one** wire. <b>x</b>'),
     ).toBe('Steps Caution (fuel) Relieve it. Cut one wire. <b>x</b>');
     expect(
-      writeupPlainText(
+      bodyPlainText(
         ':::caution battery Disconnect first\nOff.\n:::\n\n![The bracket](image:1)\n\nSee [[sheet:pump-plug|the pump plug]], ![](image:2) and `GN/YE`.\n\n```\n12.4 V\n```',
       ),
     ).toBe(
