@@ -1,6 +1,11 @@
 import type { NextFunction, Request, Response } from 'express';
 import { HttpError } from '../errors';
 
+/** Whether a request address (path and query, as sent) carries a NUL, escaped or raw. */
+export function addressHoldsNul(url: string): boolean {
+  return /%00|\0/i.test(url);
+}
+
 /**
  * Refuses a NUL character (U+0000) anywhere in the address or the JSON body. No text in
  * the product has a use for it, and the SQLite driver ends a statement at the first NUL,
@@ -9,7 +14,7 @@ import { HttpError } from '../errors';
  */
 export function refuseNul() {
   return (req: Request, _res: Response, next: NextFunction) => {
-    if (/%00|\0/i.test(req.url))
+    if (addressHoldsNul(req.url))
       return next(
         new HttpError(
           400,

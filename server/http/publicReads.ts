@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from 'express';
 import type { AppContext } from '../context';
 import type { Prepared } from './prepared';
 import { parseQuery } from './query';
+import { addressHoldsNul } from './nul';
 import { SEARCH_PARAMS, searchQuerySchema } from '../../shared/schemas/search';
 import { searchPrepared } from '../services/search';
 import { publishedView } from '../services/publicViews';
@@ -19,7 +20,8 @@ const SHEET = /^\/api\/documents\/([^/]+)$/;
 export function cachedPublicReads(ctx: AppContext, sessionCookie: string) {
   return async (req: Request, res: Response, next: NextFunction) => {
     if (!ctx.config.answerCache || (req.method !== 'GET' && req.method !== 'HEAD')) return next();
-    if (req.headers.cookie?.includes(`${sessionCookie}=`) || /%00|\0/i.test(req.url)) return next();
+    if (req.headers.cookie?.includes(`${sessionCookie}=`) || addressHoldsNul(req.url))
+      return next();
     let answer: Prepared | undefined;
     try {
       if (req.path === '/api/search') {
